@@ -1,0 +1,64 @@
+package schema
+
+// Settings is the analyst's settings: the JSON object written under
+// "settings" in every Document, and the struct that the CLI, the batch mode
+// and the page all fill and pass to the same entry point. The zero value
+// means every documented default. Pointer fields distinguish "not set"
+// (nil, use the default rule) from an explicit value such as 0 lags.
+type Settings struct {
+	// Tests lists test ids to run. Empty: the default battery, which also
+	// fills each series' verdict.
+	Tests []string `json:"tests,omitempty"`
+	// Trend is "auto" (default, empty): each test in the battery uses the
+	// deterministic terms the verdict needs; or "none", "constant", "linear"
+	// to force one for every test.
+	Trend string `json:"trend,omitempty"`
+	// Lags fixes the augmentation lags; nil: chosen by LagRule.
+	Lags *int `json:"lags,omitempty"`
+	// LagRule is "aic", "bic", "maic", "tsig"; empty: each method's
+	// prescribed rule (maic for the Dickey-Fuller family, tsig for break tests).
+	LagRule string `json:"lag_rule,omitempty"`
+	// MaxLags bounds lag selection; nil: Schwert (1989), floor(12 (T/100)^(1/4)).
+	MaxLags *int `json:"max_lags,omitempty"`
+	// Bandwidth fixes the kernel bandwidth for pp and kpss; nil: automatic.
+	Bandwidth *float64 `json:"bandwidth,omitempty"`
+	// Kernel is "bartlett" (default) or "qs" (quadratic spectral).
+	Kernel string `json:"kernel,omitempty"`
+	// BandwidthRule is "newey-west" (default, Newey & West 1994) or "andrews" (Andrews 1991).
+	BandwidthRule string `json:"bandwidth_rule,omitempty"`
+	// Level is the significance level for decisions; 0 means 0.05.
+	Level float64 `json:"level,omitempty"`
+	// Shift is "level" (default), "slope" or "level+slope" for break tests.
+	Shift string `json:"shift,omitempty"`
+	// Trim is the trimming fraction for break searches; 0 means 0.15.
+	Trim float64 `json:"trim,omitempty"`
+	// BreakDate is the known break for p89: a date from the date column or an
+	// observation number (TB, last observation of the old regime).
+	BreakDate string `json:"break_date,omitempty"`
+	// Window is the suspected crisis window "FROM:TO" (dates or observation numbers).
+	Window string `json:"window,omitempty"`
+	// Sims adds simulated finite-sample p-values with this many replications; 0: none.
+	Sims int `json:"sims,omitempty"`
+	// Seed seeds every simulation; the same seed gives the same numbers bit for bit.
+	Seed uint64 `json:"seed,omitempty"`
+	// RightTail makes adf a right-tailed (explosive alternative) test.
+	RightTail bool `json:"right_tail,omitempty"`
+	// MinWindow is the smallest window fraction for sadf/gsadf; 0: 0.01 + 1.8/sqrt(T)
+	// (Phillips, Shi & Yu 2015).
+	MinWindow float64 `json:"min_window,omitempty"`
+	// MaxBreaks bounds the number of breaks for bp; 0 means 5.
+	MaxBreaks int `json:"max_breaks,omitempty"`
+
+	// Input selection, applied before testing.
+
+	// Columns picks series by header name; empty: every numeric column.
+	Columns []string `json:"columns,omitempty"`
+	// From and To bound the sample (dates or observation numbers, inclusive).
+	From string `json:"from,omitempty"`
+	To   string `json:"to,omitempty"`
+	// Transform is applied to every series: "" (levels), "log", "diff",
+	// "diff2", "logdiff".
+	Transform string `json:"transform,omitempty"`
+	// DateColumn names the date column; empty: detected.
+	DateColumn string `json:"date_column,omitempty"`
+}
