@@ -1,0 +1,36 @@
+// Package report writes rootshift's results in every output format: a plain
+// text table for the terminal, indented JSON, CSV for spreadsheets,
+// Markdown, a LaTeX table and one self-contained HTML report with SVG plots.
+// The same code serves the command line, the batch mode and the offline page
+// (through WebAssembly).
+//
+// # Conventions
+//
+//   - Every writer takes a *schema.Document and never modifies it.
+//   - Numbers are printed with four decimals (strconv 'f', 4); a number that
+//     could not be computed prints as "n/a" in the table and Markdown, as an
+//     empty cell in CSV, as "--" in LaTeX and as "n/a" in HTML.
+//   - Observations are counted from 1. A break date TB is the last
+//     observation of the old regime, so plots draw a break line between
+//     observation TB and TB+1.
+//   - Decisions are put in words from Result.Reject and the kind of null
+//     hypothesis: "rejects unit root", "cannot reject unit root", "rejects
+//     stationarity", "cannot reject stationarity", "finds a break",
+//     "no break found", and for right-tailed unit-root tests "rejects unit
+//     root (explosive)".
+//   - Significance stars in LaTeX mark p < 0.10 (*), p < 0.05 (**) and
+//     p < 0.01 (***). They use the asymptotic p-value, else the simulated
+//     one, else the critical values of the result.
+//   - Plots are complete <svg> elements with a <title>, a viewBox, fixed
+//     colours (no CSS variables, no external fonts or images), drawn for a
+//     width of 640 pixels. Non-finite values are never printed.
+//   - The HTML report is also well-formed XML, loads nothing from outside and
+//     needs no script.
+//
+// # References
+//
+// The autocorrelation function plotted by ACFSVG is the sample ACF of
+// Box, G.E.P. & Jenkins, G.M. (1976), Time Series Analysis: Forecasting and
+// Control, eq. (2.1.12), with the approximate 95% band ±1.96/√T of
+// Bartlett, M.S. (1946), JRSS Supplement 8, 27-41, under white noise.
+package report

@@ -1,0 +1,156 @@
+package report
+
+import (
+	"io"
+	"strconv"
+	"strings"
+
+	"github.com/rootshift/rootshift/core/schema"
+)
+
+// WriteLaTeX writes doc as a LaTeX table fragment for \input: a table
+// environment holding one plain tabular (no packages needed: \hline rules,
+// no booktabs) with a block per series (its name and sample, then one row
+// per test and per component: test, variant, trend, statistic with stars,
+// p-value, 5% critical value, lags, break dates), the verdict of the series,
+// and a notes line on the settings (trend, lag rule, max lags, trimming,
+// level, simulation). Stars mark significance at 10% (*), 5% (**) and 1%
+// (***). Text is escaped; numbers are in math mode so minus signs typeset
+// correctly. The error wraps ErrNoDocument or the writer's error.
+func WriteLaTeX(w io.Writer, doc *schema.Document) error {
+	if doc == nil {
+		return ErrNoDocument
+	}
+	e := &errWriter{w: w}
+	e.print("% rootshift results table. Include with \\input; needs no extra packages.\n")
+	e.print("% Stars: * p < 0.10, ** p < 0.05, *** p < 0.01.\n")
+	e.print("\\begin{table}[htbp]\n\\centering\n")
+	caption := "Unit-root and structural-break tests"
+	if doc.Source != nil && doc.Source.Name != "" {
+		caption += ": " + texEscape(doc.Source.Name)
+	}
+	e.print("\\caption{" + caption + "}\n")
+	sim := false
+	for i := range doc.Series {
+		for j := range doc.Series[i].Results {
+			if doc.Series[i].Results[j].PValueSim != nil {
+				sim = true
+			}
+		}
+	}
+	t := &texTable{e: e, sim: sim, cols: 8}
+	spec, head := "lllrr", "Test & Variant & Trend & Statistic & $p$-value"
+	if sim {
+		t.cols++
+		spec += "r"
+		head += " & Sim. $p$"
+	}
+	spec += "rrl"
+	head += " & 5\\% c.v. & Lags & Breaks"
+	e.print("\\begin{tabular}{" + spec + "}\n\\hline\n")
+	e.print(head + " \\\\\n\\hline\n")
+	for i := range doc.Series {
+		if i > 0 {
+			e.print("\\hline\n")
+		}
+		t.series(&doc.Series[i])
+	}
+	e.print("\\hline\n")
+	notes := "Notes: " + texEscape(strings.Join(settingsNotes(&doc.Settings), "; ")) +
+		". Stars: * $p<0.10$, ** $p<0.05$, *** $p<0.01$ (simulated $p$-value or critical values when there is no asymptotic one)."
+	t.span(texWide, "\\footnotesize "+notes)
+	e.print("\\end{tabular}\n\\end{table}\n")
+	return e.err
+}
+
+// texWide is the column type of the rows that span the table: a paragraph
+// column, so long verdicts and notes wrap instead of widening the table.
+const texWide = `p{0.9\linewidth}`
+
+// texTable writes the rows of the LaTeX tabular.
+type texTable struct {
+	e    *errWriter
+	sim  bool // a simulated p-value column is present
+	cols int
+}
+
+// span is a row with one cell spanning every column.
+func (t *texTable) span(align, text string) {
+	t.e.print("\\multicolumn{" + strconv.Itoa(t.cols) + "}{" + align + "}{" + text + "} \\\\\n")
+}
+
+func (t *texTable) series(s *schema.Series) {
+	e := t.e
+	head := "\\textit{" + texEscape(s.Name) + "} (" + texEscape(seriesMeta(s)) + ")"
+	t.span("l", head)
+	for i := range s.Results {
+		r := &s.Results[i]
+		variant := strings.TrimSpace(r.Variant + " " + r.Shift)
+		stat := texNum(r.Statistic, stars(r.PValue, r.PValueSim, r.Statistic, r.CriticalValues, r.Tail))
+		cv5 := "--"
+		if c, ok := cv(r.CriticalValues, "0.05"); ok {
+			cv5 = texNum(&c, "")
+		}
+		var br []string
+		if len(r.Breaks) > 0 {
+			br = append(br, strings.Join(breakDates(r.Breaks), ", "))
+		}
+		if len(r.Episodes) > 0 {
+			br = append(br, "explosive "+episodeText(r.Episodes))
+		}
+		cells := []string{texEscape(r.Test), texEscape(variant), texEscape(r.Trend), stat, texNum(r.PValue, "")}
+		if t.sim {
+			cells = append(cells, texNum(r.PValueSim, ""))
+		}
+		cells = append(cells, cv5, strconv.Itoa(r.Lags), texEscape(strings.Join(br, "; ")))
+		e.print(strings.Join(cells, " & ") + " \\\\\n")
+		comps := append(append([]schema.Component(nil), r.Components...), r.BreakTests...)
+		for j := range comps {
+			c := &comps[j]
+			tail := c.Tail
+			if tail == "" {
+				tail = r.Tail
+			}
+			ccv := "--"
+			if v, ok := cv(c.CriticalValues, "0.05"); ok {
+				ccv = texNum(&v, "")
+			}
+			cc := []string{"", "\\quad " + texEscape(c.Name), "",
+				texNum(c.Statistic, stars(c.PValue, nil, c.Statistic, c.CriticalValues, tail)), texNum(c.PValue, "")}
+			if t.sim {
+				cc = append(cc, "")
+			}
+			cc = append(cc, ccv, "", "")
+			e.print(strings.Join(cc, " & ") + " \\\\\n")
+		}
+	}
+	if v := s.Verdict; v != nil {
+		t.span(texWide, "Verdict: "+texEscape(verdictHeadline(v)))
+	}
+	for _, er := range s.Errors {
+		t.span(texWide, "Error: "+texEscape(errorText(er)))
+	}
+}
+
+// texNum formats *p in math mode with optional stars as a superscript, or
+// "--" when p is nil or not finite.
+func texNum(p *float64, stars string) string {
+	if p == nil || !finite(*p) {
+		return "--"
+	}
+	s := "$" + num(*p, "")
+	if stars != "" {
+		s += "^{" + stars + "}"
+	}
+	return s + "$"
+}
+
+// texReplacer escapes LaTeX special characters in text.
+var texReplacer = strings.NewReplacer(
+	`\`, `\textbackslash{}`, "&", `\&`, "%", `\%`, "$", `\$`, "#", `\#`, "_", `\_`,
+	"{", `\{`, "}", `\}`, "~", `\textasciitilde{}`, "^", `\textasciicircum{}`,
+	"<", `\textless{}`, ">", `\textgreater{}`, "|", `\textbar{}`, "\n", " ", "\r", " ",
+)
+
+// texEscape escapes text for LaTeX.
+func texEscape(s string) string { return texReplacer.Replace(s) }
