@@ -234,6 +234,10 @@ type Config struct {
 	Trim float64
 	// BreakIndex is a known break TB (1-based), used by tests with a given date.
 	BreakIndex int
+	// BreakRule picks the break date in the pio and pao searches (Perron 1997):
+	// 0 (default) minimises the unit-root t-ratio, 1 maximises |t| on the
+	// level-shift coefficient, 2 maximises |t| on the slope-shift coefficient.
+	BreakRule int
 	// Sims is the number of Monte Carlo replications for simulated p-values; 0: none.
 	Sims int
 	// Seed seeds the simulation.

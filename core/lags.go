@@ -1,0 +1,450 @@
+package core
+
+// Augmented Dickey-Fuller regressions and the choice of their augmentation
+// order.
+//
+// The regression (Dickey & Fuller 1979; Said & Dickey 1984, eq. 1.2) is
+//
+//	Δy_t = det_t'δ + ρ y_{t-1} + Σ_{i=1..k} γ_i Δy_{t-i} + e_t,
+//
+// with det_t empty (TrendNone), 1 (TrendConstant) or (1, t) (TrendLinear),
+// t = 1..T the observation number in the series passed in.
+//
+// Lag rules (all compared on the common sample t = kmax+2..T, Ng & Perron
+// 2001, p. 1529):
+//   - AIC / BIC: log(σ̂²_k) + C_T k / N with C_T = 2 or log N, σ̂²_k = SSR_k/N,
+//     N = T - kmax - 1.
+//   - MAIC (Ng & Perron 2001, eq. 9): log(σ̂²_k) + 2(τ_T(k) + k)/N with
+//     τ_T(k) = ρ̂² Σ ỹ_{t-1}² / σ̂²_k. When det is TrendNone the criterion uses
+//     the series as passed (the DF-GLS caller passes GLS-detrended data).
+//     Otherwise, following Perron & Qu (2007), the whole criterion (σ̂²_k, ρ̂
+//     and Σ ỹ²_{t-1}) is computed from the regression without deterministic
+//     terms on the OLS-detrended series ỹ (residuals of y on det over t=1..T).
+//   - TSig (Ng & Perron 1995): start at kmax and drop the last lag while its
+//     |t| < 1.645 (10% two-sided normal).
+//
+// References: Dickey & Fuller (1979), JASA 74; Said & Dickey (1984),
+// Biometrika 71; Ng & Perron (1995), JASA 90; Ng & Perron (2001),
+// Econometrica 69; Perron & Qu (2007), Economics Letters 94, 12-19.
+
+import (
+	"fmt"
+	"math"
+)
+
+// DFFit is the outcome of one augmented Dickey-Fuller regression. The full
+// fit Fit has its coefficients in the order [ρ, γ_1..γ_k, det...] where det
+// is (1) for TrendConstant and (1, t) for TrendLinear.
+type DFFit struct {
+	// Rho is the coefficient on y_{t-1} (ρ = α - 1), SE its standard error,
+	// TStat the Dickey-Fuller t-ratio ρ/SE.
+	Rho, SE, TStat float64
+	// K is the number of lagged differences, NObs the observations used and
+	// Start the first t used (1-based; the last is T).
+	K, NObs, Start int
+	// SSR is the sum of squared residuals; Sigma2 = SSR/(NObs - regressors).
+	SSR, Sigma2 float64
+	// Fit is the full fit (valid until the next call on the same DFWork).
+	Fit *Fit
+	// SumGamma is Σ γ_i, the AR sum b(1) for the M-tests' spectral estimate.
+	SumGamma float64
+	// Det is the number of deterministic columns (after the k lags in Fit).
+	Det int
+}
+
+// DFWork fits augmented Dickey-Fuller regressions
+// Δy_t = det_t'δ + ρ y_{t-1} + Σ_{i=1..k} γ_i Δy_{t-i} + e_t reusing storage.
+// det is TrendNone / TrendConstant / TrendLinear (t = 1..T, the observation
+// number in y). The zero value is ready to use; a DFWork is not safe for
+// concurrent use. After the first call of a given size, Regress does not
+// allocate.
+type DFWork struct {
+	ls   LS
+	cols [][]float64
+	back []float64
+	dep  []float64
+	tr   []float64 // OLS-detrended copy for MAIC
+	fit  DFFit
+
+	// Cross-product fast path of SelectLags.
+	nm   Normal
+	z    []float64 // scaled (and, with a constant, centred) series
+	xr   []float64 // one row of the kmax design
+	xx   []float64 // X'X of the kmax design (m*m, lower triangle)
+	xy   []float64 // X'Δz
+	idx  []int
+	crit []float64 // criterion by k from the last selection (tests)
+}
+
+// Regress fits with k lags on t = start..T; start = 0 means k+2 (all
+// observations where the terms exist). Errors wrap ErrSettings (bad k or
+// start), ErrTooShort, ErrSingular, ErrNonFinite or ErrNoEstimate (perfect
+// fit: the t-ratio is undefined).
+func (w *DFWork) Regress(y []float64, det Trend, k, start int) (*DFFit, error) {
+	T := len(y)
+	if k < 0 {
+		return nil, fmt.Errorf("%w: negative lag order %d", ErrSettings, k)
+	}
+	if start == 0 {
+		start = k + 2
+	}
+	if start < k+2 {
+		return nil, fmt.Errorf("%w: sample start %d before first usable observation %d", ErrSettings, start, k+2)
+	}
+	nd := det.NumDet()
+	nc := 1 + k + nd
+	n := T - start + 1
+	if n <= nc {
+		return nil, fmt.Errorf("%w: %d observations for %d regressors", ErrTooShort, max(n, 0), nc)
+	}
+	w.back = grow(w.back, n*nc)
+	if cap(w.cols) < nc {
+		w.cols = make([][]float64, nc)
+	}
+	w.cols = w.cols[:nc]
+	for j := range nc {
+		w.cols[j] = w.back[j*n : (j+1)*n]
+	}
+	w.dep = grow(w.dep, n)
+	// Row r corresponds to t = start + r (1-based), i.e. y[t-1] in Go indexing.
+	tss := 0.0
+	for r := range n {
+		t := start + r
+		d := y[t-1] - y[t-2]
+		w.dep[r] = d
+		tss += d * d
+		w.cols[0][r] = y[t-2]
+		for i := 1; i <= k; i++ {
+			w.cols[i][r] = y[t-1-i] - y[t-2-i]
+		}
+		if nd >= 1 {
+			w.cols[k+1][r] = 1
+		}
+		if nd == 2 {
+			w.cols[k+2][r] = float64(t)
+		}
+	}
+	if math.IsNaN(tss) || math.IsInf(tss, 0) {
+		return nil, fmt.Errorf("%w: in the differences of the series", ErrNonFinite)
+	}
+	if tss == 0 {
+		return nil, fmt.Errorf("%w: the series does not change over the sample", ErrConstant)
+	}
+	f, err := w.ls.Fit(w.cols, w.dep)
+	if err != nil {
+		return nil, err
+	}
+	if !(f.SSR > 1e-26*tss) {
+		return nil, fmt.Errorf("%w: the regression fits exactly (deterministic series)", ErrNoEstimate)
+	}
+	o := &w.fit
+	o.Rho, o.SE = f.Coef[0], f.StdErr[0]
+	o.TStat = o.Rho / o.SE
+	o.K, o.NObs, o.Start, o.Det = k, n, start, nd
+	o.SSR, o.Sigma2 = f.SSR, f.Sigma2
+	o.Fit = f
+	o.SumGamma = 0
+	for i := 1; i <= k; i++ {
+		o.SumGamma += f.Coef[i]
+	}
+	if math.IsNaN(o.TStat) || math.IsInf(o.TStat, 0) {
+		return nil, fmt.Errorf("%w: Dickey-Fuller t-ratio is not finite", ErrNoEstimate)
+	}
+	return o, nil
+}
+
+// SelectLags chooses k in 0..kmax by rule on the common sample
+// t = kmax+2..T (Ng & Perron 2001 p.1529) and returns k. See the file
+// comment for the criteria; LagFixed and LagAuto are not rules here
+// (ErrSettings). The fits it makes may overwrite the DFWork's last fit.
+//
+// It uses a cross-product fast path: the series is scaled (and centred when
+// det has a constant, with the trend centred and scaled too, which leaves
+// every criterion's argmin unchanged), X'X of the kmax design is formed once
+// and each order is solved from its sub-matrix (core.Normal). When that
+// factorisation is numerically singular it falls back to Householder QR
+// fits (selectLagsQR, also the brute-force twin in the tests). It does not
+// allocate once the sizes have been seen.
+func (w *DFWork) SelectLags(y []float64, det Trend, rule LagRule, kmax int) (int, error) {
+	if kmax < 0 {
+		return 0, fmt.Errorf("%w: negative maximum lag %d", ErrSettings, kmax)
+	}
+	switch rule {
+	case LagAIC, LagBIC, LagMAIC, LagTSig:
+	default:
+		return 0, fmt.Errorf("%w: lag rule %v is not a selection rule", ErrSettings, rule)
+	}
+	// The QR fit at kmax validates the sample (length, finiteness, constant
+	// or exactly fitted series) with the same errors as Regress.
+	if _, err := w.Regress(y, det, kmax, kmax+2); err != nil {
+		return 0, err
+	}
+	if k, ok := w.selectLagsFast(y, det, rule, kmax); ok {
+		return k, nil
+	}
+	return w.selectLagsQR(y, det, rule, kmax)
+}
+
+// selectLagsFast is the cross-product path of SelectLags; ok is false when
+// the normal equations are numerically singular.
+func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) (k int, ok bool) {
+	src := y
+	if rule == LagMAIC && det != TrendNone {
+		w.tr = Detrend(w.tr, y, det)
+		src, det = w.tr, TrendNone
+	}
+	T := len(src)
+	nd := det.NumDet()
+	m := 1 + kmax + nd
+	start := kmax + 2
+	n := T - start + 1
+	// Scale (and centre when a constant is present).
+	w.z = grow(w.z, T)
+	mean := 0.0
+	if nd > 0 {
+		for _, v := range src {
+			mean += v
+		}
+		mean /= float64(T)
+	}
+	ss := 0.0
+	for _, v := range src {
+		ss += (v - mean) * (v - mean)
+	}
+	scale := math.Sqrt(ss / float64(T))
+	if !(scale > 0) || math.IsInf(scale, 0) {
+		return 0, false
+	}
+	for i, v := range src {
+		w.z[i] = (v - mean) / scale
+	}
+	z := w.z
+	// Centred, scaled trend over the sample rows.
+	tbar := float64(start+T) / 2
+	tsd := math.Sqrt((float64(n)*float64(n) - 1) / 12)
+	if tsd == 0 {
+		tsd = 1
+	}
+	w.xr = grow(w.xr, m)
+	w.xx = grow(w.xx, m*m)
+	w.xy = grow(w.xy, m)
+	xx, xy, xr := w.xx, w.xy, w.xr
+	for i := range xx {
+		xx[i] = 0
+	}
+	for i := range xy {
+		xy[i] = 0
+	}
+	yy := 0.0
+	for t := start; t <= T; t++ {
+		d := z[t-1] - z[t-2]
+		xr[0] = z[t-2]
+		for i := 1; i <= kmax; i++ {
+			xr[i] = z[t-1-i] - z[t-2-i]
+		}
+		if nd >= 1 {
+			xr[kmax+1] = 1
+		}
+		if nd == 2 {
+			xr[kmax+2] = (float64(t) - tbar) / tsd
+		}
+		yy += d * d
+		for i := range m {
+			v := xr[i]
+			xy[i] += v * d
+			row := xx[i*m : i*m+i+1]
+			for j := range row {
+				row[j] += v * xr[j]
+			}
+		}
+	}
+	if cap(w.idx) < m {
+		w.idx = make([]int, m)
+	}
+	w.crit = grow(w.crit, kmax+1)
+	N := float64(n)
+	logScale := 2 * math.Log(scale)
+	best, bestK := math.Inf(1), 0
+	for kk := 0; kk <= kmax; kk++ {
+		p := 1 + kk + nd
+		idx := w.idx[:p]
+		for i := 0; i <= kk; i++ {
+			idx[i] = i
+		}
+		for i := 0; i < nd; i++ {
+			idx[kk+1+i] = kmax + 1 + i
+		}
+		nm := &w.nm
+		nm.Reset(p)
+		for i, a := range idx {
+			nm.B[i] = xy[a]
+			for j := 0; j <= i; j++ {
+				b := idx[j]
+				nm.A[i*p+j] = xx[a*m+b] // a >= b: lower triangle of xx
+			}
+		}
+		nm.YY, nm.N = yy, n
+		ssr, err := nm.Solve()
+		if err != nil || !(ssr > 0) {
+			return 0, false
+		}
+		var v float64
+		switch rule {
+		case LagAIC, LagBIC:
+			c := 2.0
+			if rule == LagBIC {
+				c = math.Log(N)
+			}
+			v = math.Log(ssr/N) + logScale + c*float64(kk)/N
+		case LagMAIC:
+			s2 := ssr / N
+			rho := nm.Coef[0]
+			tau := rho * rho * xx[0] / s2
+			v = math.Log(s2) + logScale + 2*(tau+float64(kk))/N
+		case LagTSig:
+			// |t| of the last lag; the rule keeps the largest significant k.
+			if kk == 0 {
+				v = 0
+			} else {
+				se := math.Sqrt(ssr / float64(n-p) * nm.InvDiag(kk))
+				v = math.Abs(nm.Coef[kk] / se)
+			}
+		}
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return 0, false
+		}
+		w.crit[kk] = v
+		if rule != LagTSig && v < best {
+			best, bestK = v, kk
+		}
+	}
+	if rule == LagTSig {
+		for kk := kmax; kk > 0; kk-- {
+			if w.crit[kk] >= 1.645 {
+				return kk, true
+			}
+		}
+		return 0, true
+	}
+	return bestK, true
+}
+
+// selectLagsQR is SelectLags by a full Householder QR fit per order: the
+// brute-force twin of the cross-product path and its fallback. It records
+// the criteria in w.crit like the fast path (TSig: |t| of the last lag, 0
+// for k = 0; only orders visited are set).
+func (w *DFWork) selectLagsQR(y []float64, det Trend, rule LagRule, kmax int) (int, error) {
+	if kmax < 0 {
+		return 0, fmt.Errorf("%w: negative maximum lag %d", ErrSettings, kmax)
+	}
+	start := kmax + 2
+	w.crit = grow(w.crit, kmax+1)
+	// Fit kmax first so the storage has its largest size (no reallocation).
+	if _, err := w.Regress(y, det, kmax, start); err != nil {
+		return 0, err
+	}
+	switch rule {
+	case LagAIC, LagBIC:
+		best, bestK := math.Inf(1), 0
+		for k := 0; k <= kmax; k++ {
+			f, err := w.Regress(y, det, k, start)
+			if err != nil {
+				return 0, err
+			}
+			N := float64(f.NObs)
+			c := 2.0
+			if rule == LagBIC {
+				c = math.Log(N)
+			}
+			v := math.Log(f.SSR/N) + c*float64(k)/N
+			w.crit[k] = v
+			if v < best {
+				best, bestK = v, k
+			}
+		}
+		return bestK, nil
+	case LagMAIC:
+		src := y
+		if det != TrendNone {
+			w.tr = Detrend(w.tr, y, det)
+			src = w.tr
+		}
+		best, bestK := math.Inf(1), 0
+		for k := 0; k <= kmax; k++ {
+			f, err := w.Regress(src, TrendNone, k, start)
+			if err != nil {
+				return 0, err
+			}
+			N := float64(f.NObs)
+			s2 := f.SSR / N
+			sy := 0.0
+			for _, v := range w.cols[0] {
+				sy += v * v
+			}
+			tau := f.Rho * f.Rho * sy / s2
+			v := math.Log(s2) + 2*(tau+float64(k))/N
+			w.crit[k] = v
+			if v < best {
+				best, bestK = v, k
+			}
+		}
+		return bestK, nil
+	case LagTSig:
+		w.crit[0] = 0
+		for k := kmax; k > 0; k-- {
+			f, err := w.Regress(y, det, k, start)
+			if err != nil {
+				return 0, err
+			}
+			w.crit[k] = math.Abs(f.Fit.TStat(k))
+			if w.crit[k] >= 1.645 {
+				return k, nil
+			}
+		}
+		// Check the sample is usable at all, so k = 0 is not returned for a bad series.
+		if _, err := w.Regress(y, det, 0, start); err != nil {
+			return 0, err
+		}
+		return 0, nil
+	}
+	return 0, fmt.Errorf("%w: lag rule %v is not a selection rule", ErrSettings, rule)
+}
+
+// Detrend returns the OLS residuals of y on the deterministic terms det
+// (nothing, a constant, or a constant and t = 1..T) in dst (grown as
+// needed). It uses closed forms with the trend centred, so it does not
+// allocate when dst has room.
+func Detrend(dst, y []float64, det Trend) []float64 {
+	n := len(y)
+	dst = grow(dst, n)
+	switch det {
+	case TrendNone:
+		copy(dst, y)
+		return dst
+	}
+	mean := 0.0
+	for _, v := range y {
+		mean += v
+	}
+	if n > 0 {
+		mean /= float64(n)
+	}
+	if det == TrendLinear && n > 1 {
+		tbar := float64(n+1) / 2
+		sxy, sxx := 0.0, 0.0
+		for i, v := range y {
+			d := float64(i+1) - tbar
+			sxy += d * (v - mean)
+			sxx += d * d
+		}
+		b := sxy / sxx
+		for i, v := range y {
+			dst[i] = v - mean - b*(float64(i+1)-tbar)
+		}
+		return dst
+	}
+	for i, v := range y {
+		dst[i] = v - mean
+	}
+	return dst
+}
