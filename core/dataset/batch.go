@@ -1,0 +1,351 @@
+package dataset
+
+import (
+	"bufio"
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+)
+
+// LongOptions name the columns of a long file. Empty names mean "id",
+// "date", "value" (matched ignoring case). The date column may be absent
+// from the file; id and value may not.
+type LongOptions struct {
+	ID, Date, Value string
+	// Delimiter is the field delimiter; 0 detects it from the first 64 KiB.
+	Delimiter rune
+	// Name is the file name used in errors.
+	Name string
+}
+
+// LongReader streams a long file (one row per id and date) and returns one
+// single-series Table per id. Rows of one id must be contiguous.
+//
+// Errors: a bad record (a bad number or date, an id seen before, an empty id)
+// makes Next return a *ParseError with its line after consuming the rest of
+// that id's rows; calling Next again continues with the next id. Read errors
+// and header errors are returned by every later call.
+type LongReader struct {
+	rr      *recordReader
+	name    string
+	dec     decimal
+	id, dt  int // column indexes (dt -1: none)
+	val     int
+	names   []string
+	pending *record
+	seen    map[string]bool
+	err     error
+}
+
+// NewLongReader reads the header of a long file.
+func NewLongReader(r io.Reader, opt LongOptions) (*LongReader, error) {
+	br := bufio.NewReaderSize(r, 64<<10)
+	peek, _ := br.Peek(64 << 10)
+	partial := len(peek) == 64<<10
+	lines := sampleLines(peek, 50, partial)
+	delim := byte(0)
+	if opt.Delimiter != 0 {
+		if opt.Delimiter >= utf8.RuneSelf || opt.Delimiter == '"' || opt.Delimiter == '\n' || opt.Delimiter == '\r' {
+			return nil, &ParseError{File: opt.Name, Err: wrapf(ErrBadNumber, "delimiter %q is not supported", opt.Delimiter)}
+		}
+		delim = byte(opt.Delimiter)
+	} else {
+		delim = detectDelimiter(lines)
+	}
+	lr := &LongReader{rr: newRecordReader(br, delim), name: opt.Name, seen: map[string]bool{}, dt: -1}
+	if delim != ',' {
+		recs := make([]record, len(lines))
+		for i, l := range lines {
+			recs[i] = record{fields: splitFields(l, delim)}
+		}
+		lr.dec, _ = detectDecimal(recs, delim)
+	}
+	head, err := lr.rr.next()
+	if err == io.EOF {
+		return nil, &ParseError{File: opt.Name, Err: wrapf(ErrNoHeader, "the input is empty")}
+	}
+	if err != nil {
+		return nil, &ParseError{File: opt.Name, Err: err}
+	}
+	for _, f := range head.fields {
+		lr.names = append(lr.names, trimSpace(f))
+	}
+	col := func(want, def string) int {
+		if want == "" {
+			want = def
+		}
+		for j, n := range lr.names {
+			if strings.EqualFold(n, trimSpace(want)) {
+				return j
+			}
+		}
+		return -1
+	}
+	lr.id, lr.dt, lr.val = col(opt.ID, "id"), col(opt.Date, "date"), col(opt.Value, "value")
+	if lr.id < 0 || lr.val < 0 {
+		missing := opt.ID
+		if lr.id >= 0 {
+			missing = opt.Value
+		}
+		if missing == "" {
+			missing = map[bool]string{true: "id", false: "value"}[lr.id < 0]
+		}
+		return nil, &ParseError{File: opt.Name, Row: head.line, ColumnName: missing,
+			Err: wrapf(ErrNoHeader, "no column %q in the header (%s)", missing, strings.Join(lr.names, ", "))}
+	}
+	return lr, nil
+}
+
+func (lr *LongReader) field(r *record, j int) string {
+	if j < len(r.fields) {
+		return trimSpace(r.fields[j])
+	}
+	return ""
+}
+
+func (lr *LongReader) perr(r *record, j int, err error) *ParseError {
+	return &ParseError{File: lr.name, Row: r.line, Column: j + 1, ColumnName: lr.names[j], Value: lr.field(r, j), Err: err}
+}
+
+func (lr *LongReader) read() (*record, error) {
+	if lr.pending != nil {
+		r := lr.pending
+		lr.pending = nil
+		return r, nil
+	}
+	r, err := lr.rr.next()
+	if err != nil {
+		return nil, err
+	}
+	return &r, nil
+}
+
+// Next returns the next id's series, or io.EOF after the last.
+func (lr *LongReader) Next() (*Table, error) {
+	if lr.err != nil {
+		return nil, lr.err
+	}
+	first, err := lr.read()
+	if err == io.EOF {
+		return nil, io.EOF
+	}
+	if err != nil {
+		lr.err = &ParseError{File: lr.name, Row: lr.rr.line, Err: err}
+		return nil, lr.err
+	}
+	id := lr.field(first, lr.id)
+	var bad *ParseError
+	switch {
+	case id == "":
+		bad = lr.perr(first, lr.id, wrapf(ErrBadNumber, "empty id"))
+	case lr.seen[id]:
+		bad = lr.perr(first, lr.id, wrapf(ErrNotContiguous, "id %q appeared before: sort the file by id", id))
+	}
+	lr.seen[id] = true
+	var vals []float64
+	var dates []string
+	var lines []int
+	for r := first; ; {
+		if bad == nil {
+			s := lr.field(r, lr.val)
+			v := math.NaN()
+			if !IsMissing(s) {
+				x, ok := parseNumber(s, lr.dec)
+				if !ok {
+					bad = lr.perr(r, lr.val, ErrBadNumber)
+				}
+				v = x
+			}
+			vals = append(vals, v)
+			lines = append(lines, r.line)
+			if lr.dt >= 0 {
+				dates = append(dates, lr.field(r, lr.dt))
+			}
+		}
+		next, err := lr.read()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			lr.err = &ParseError{File: lr.name, Row: lr.rr.line, Err: err}
+			return nil, lr.err
+		}
+		if lr.field(next, lr.id) != id {
+			lr.pending = next
+			break
+		}
+		r = next
+	}
+	if bad != nil {
+		return nil, bad
+	}
+	t := &Table{Name: id, Rows: len(vals), Delimiter: rune(lr.rr.delim), DecimalComma: lr.dec == decComma}
+	if lr.dt >= 0 {
+		dc, e := parseDates(dates)
+		if e != nil {
+			return nil, &ParseError{File: lr.name, Row: lines[e.i], Column: lr.dt + 1, ColumnName: lr.names[lr.dt], Value: dates[e.i], Err: e.err}
+		}
+		t.DateColumn, t.Dates, t.Frequency = lr.names[lr.dt], dc.labels, dc.freq
+		if dc.warn != "" {
+			t.Warnings = append(t.Warnings, dc.warn)
+		}
+	}
+	t.Series = []Series{{Name: id, Column: lr.val + 1, Values: vals, Dates: t.Dates, Frequency: t.Frequency, First: 1}}
+	return t, nil
+}
+
+// JSONLReader streams JSON Lines, one series per line:
+//
+//	{"id": "gdp", "dates": ["2000Q1", ...], "values": [1.5, null, ...]}
+//
+// "dates" is optional and, when present, as long as "values". A value is a
+// number, null, or a string holding a number or a missing marker. The id is a
+// string or a number. Blank lines are skipped; other fields are ignored.
+//
+// Errors: a bad line makes Next return a *ParseError with its line number
+// (Column is the 1-based position in "values" or "dates" when known); calling
+// Next again continues with the next line. Read errors are returned by every
+// later call.
+type JSONLReader struct {
+	br   *bufio.Reader
+	line int
+	err  error
+	// Name is the file name used in errors.
+	Name string
+}
+
+// NewJSONLReader returns a reader of JSON Lines.
+func NewJSONLReader(r io.Reader) *JSONLReader {
+	return &JSONLReader{br: bufio.NewReaderSize(r, 64<<10)}
+}
+
+type jsonlRecord struct {
+	ID     json.RawMessage   `json:"id"`
+	Dates  []string          `json:"dates"`
+	Values []json.RawMessage `json:"values"`
+}
+
+// Next returns the next line's series, or io.EOF after the last.
+func (jr *JSONLReader) Next() (*Table, error) {
+	if jr.err != nil {
+		return nil, jr.err
+	}
+	var line []byte
+	for {
+		b, err := jr.br.ReadBytes('\n')
+		if len(b) > 0 {
+			jr.line++
+		}
+		if err != nil && err != io.EOF {
+			jr.err = &ParseError{File: jr.Name, Row: jr.line, Err: err}
+			return nil, jr.err
+		}
+		if jr.line == 1 && len(b) > 0 {
+			b = bytes.TrimPrefix(b, []byte("\xEF\xBB\xBF"))
+		}
+		if len(bytes.TrimSpace(b)) > 0 {
+			line = b
+			break
+		}
+		if err == io.EOF {
+			jr.err = io.EOF
+			return nil, io.EOF
+		}
+	}
+	perr := func(col int, name string, err error) *ParseError {
+		return &ParseError{File: jr.Name, Row: jr.line, Column: col, ColumnName: name, Err: err}
+	}
+	var rec jsonlRecord
+	dec := json.NewDecoder(bytes.NewReader(line))
+	if err := dec.Decode(&rec); err != nil {
+		return nil, perr(0, "", fmt.Errorf("%w: invalid JSON: %v", ErrBadNumber, err))
+	}
+	if dec.More() {
+		return nil, perr(0, "", wrapf(ErrBadNumber, "more than one JSON value on the line"))
+	}
+	var id string
+	switch {
+	case len(rec.ID) == 0 || string(rec.ID) == "null":
+		return nil, perr(0, "id", wrapf(ErrBadNumber, "no id"))
+	case rec.ID[0] == '"':
+		if err := json.Unmarshal(rec.ID, &id); err != nil {
+			return nil, perr(0, "id", fmt.Errorf("%w: id: %v", ErrBadNumber, err))
+		}
+	default:
+		var n json.Number
+		if err := json.Unmarshal(rec.ID, &n); err != nil {
+			return nil, perr(0, "id", wrapf(ErrBadNumber, "id must be a string or a number"))
+		}
+		id = n.String()
+	}
+	if strings.TrimSpace(id) == "" {
+		return nil, perr(0, "id", wrapf(ErrBadNumber, "empty id"))
+	}
+	if len(rec.Values) == 0 {
+		return nil, perr(0, "values", wrapf(ErrTooShort, "no values"))
+	}
+	vals := make([]float64, len(rec.Values))
+	for k, raw := range rec.Values {
+		v, err := jsonValue(raw)
+		if err != nil {
+			pe := perr(k+1, "values", err)
+			pe.Value = string(raw)
+			return nil, pe
+		}
+		vals[k] = v
+	}
+	t := &Table{Name: id, Rows: len(vals)}
+	if rec.Dates != nil {
+		if len(rec.Dates) != len(vals) {
+			return nil, perr(0, "dates", wrapf(ErrBadDate, "%d dates for %d values", len(rec.Dates), len(vals)))
+		}
+		dc, e := parseDates(rec.Dates)
+		if e != nil {
+			pe := perr(e.i+1, "dates", e.err)
+			pe.Value = rec.Dates[e.i]
+			return nil, pe
+		}
+		t.DateColumn, t.Dates, t.Frequency = "dates", dc.labels, dc.freq
+		if dc.warn != "" {
+			t.Warnings = append(t.Warnings, dc.warn)
+		}
+	}
+	t.Series = []Series{{Name: id, Column: 1, Values: vals, Dates: t.Dates, Frequency: t.Frequency, First: 1}}
+	return t, nil
+}
+
+// jsonValue reads one element of "values".
+func jsonValue(raw json.RawMessage) (float64, error) {
+	s := string(bytes.TrimSpace(raw))
+	switch {
+	case s == "null":
+		return math.NaN(), nil
+	case strings.HasPrefix(s, `"`):
+		var str string
+		if err := json.Unmarshal(raw, &str); err != nil {
+			return 0, ErrBadNumber
+		}
+		if IsMissing(str) {
+			return math.NaN(), nil
+		}
+		if v, ok := parseNumber(str, decPoint); ok {
+			return v, nil
+		}
+		return 0, ErrBadNumber
+	}
+	v, err := strconv.ParseFloat(s, 64)
+	if err != nil {
+		var ne *strconv.NumError
+		if errors.As(err, &ne) && errors.Is(ne.Err, strconv.ErrRange) {
+			return 0, wrapf(ErrBadNumber, "out of range")
+		}
+		return 0, ErrBadNumber
+	}
+	return v, nil
+}
