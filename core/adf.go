@@ -11,9 +11,12 @@ package core
 //
 // H0: ρ = 0 (a unit root) against ρ < 0; the statistic is the t-ratio
 // τ = ρ̂/s.e.(ρ̂). The lag order k is fixed (cfg.LagRule = LagFixed) or chosen
-// on the common sample t = kmax+2..T; with LagAuto the rule is MAIC (Ng &
-// Perron 2001, eq. 9), common practice in modern work. kmax is Schwert's
-// (1989) rule unless cfg.MaxLags is set. See lags.go for the rules.
+// on the common sample t = kmax+2..T; with LagAuto the rule is BIC (Schwarz
+// 1978; common practice, no source). MAIC (Ng & Perron 2001, eq. 9) is on
+// request: it was designed for near-unit-root GLS-detrended data and picks
+// long lags on series far from a unit root, which costs the OLS test much
+// of its power there (measured in adf_test.go and in the verdict study).
+// kmax is Schwert's (1989) rule unless cfg.MaxLags is set. See lags.go.
 //
 // Right-tailed version (cfg.RightTail): the same statistic tested against an
 // explosive root ρ > 0 (Phillips, Wu & Yu 2011, IER 52, 201-226); the null
@@ -115,7 +118,7 @@ func dfVariant(trend Trend) string {
 // adfFit chooses the lag order and fits the ADF regression of y under cfg.
 // The *DFFit is owned by w.
 func adfFit(w *DFWork, y []float64, cfg *Config) (*DFFit, LagRule, int, error) {
-	k, rule, kmax, err := dfLags(w, y, cfg.Trend, cfg, LagMAIC)
+	k, rule, kmax, err := dfLags(w, y, cfg.Trend, cfg, LagBIC)
 	if err != nil {
 		return nil, rule, kmax, err
 	}

@@ -356,7 +356,7 @@ func settingsNotes(s *schema.Settings) []string {
 	if trend == "" || trend == "auto" {
 		trend = "chosen per test (auto)"
 	}
-	lag := "each method's rule (MAIC for the Dickey-Fuller family, t-sig for break tests)"
+	lag := "each method's rule (BIC for ADF, MAIC for DF-GLS and the M-tests, t-sig for break tests)"
 	if s.Lags != nil {
 		lag = "fixed at " + strconv.Itoa(*s.Lags)
 	} else if s.LagRule != "" {

@@ -20,7 +20,7 @@ type Settings struct {
 	// Lags fixes the augmentation lags; nil: chosen by LagRule.
 	Lags *int `json:"lags,omitempty"`
 	// LagRule is "aic", "bic", "maic", "tsig"; empty: each method's
-	// prescribed rule (maic for the Dickey-Fuller family, tsig for break tests).
+	// prescribed rule (bic for adf, maic for dfgls, ers and mtests, tsig for break tests).
 	LagRule string `json:"lag_rule,omitempty"`
 	// MaxLags bounds lag selection; nil: Schwert (1989), floor(12 (T/100)^(1/4)).
 	MaxLags *int `json:"max_lags,omitempty"`

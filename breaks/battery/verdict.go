@@ -1,0 +1,632 @@
+package battery
+
+import (
+	"fmt"
+	"math"
+	"slices"
+	"strings"
+
+	"github.com/rootshift/rootshift/core"
+	"github.com/rootshift/rootshift/core/schema"
+)
+
+// DefaultVerdictTests is the default set of tests the verdict uses, in the
+// order they run. Why each is there (see also README, "The verdict"):
+//
+//   - adf with a constant and with a linear trend: the standard test of a
+//     unit root, in both deterministic specifications, because a trending
+//     stationary series is not rejected by the constant-only test.
+//   - kpss: the reverse null (stationarity), so agreement and contradiction
+//     between the two families are visible.
+//   - za: Zivot & Andrews (1992), a unit-root test whose alternative allows a
+//     break at a date chosen by the data: it answers "stationary around a
+//     shift?" but can over-reject when the break also exists under the null.
+//   - ls1: Lee & Strazicich (2013), an LM test that allows the break under
+//     the null as well, so a rejection is not an artefact of a break in a
+//     random walk; it arbitrates when za rejects.
+//   - bp: Bai & Perron (1998, 2003) break dating, to date shifts and to
+//     detect breaks in a unit-root series (unit root with breaks).
+//   - sadf: Phillips, Wu & Yu (2011), the right-tailed test for an explosive
+//     episode.
+//
+// The order of integration adds adf and kpss on the first difference.
+var DefaultVerdictTests = []string{"adf", "kpss", "za", "ls1", "bp", "sadf"}
+
+// Verdict classes.
+const (
+	ClassStationary      = "stationary"
+	ClassTrendStationary = "trend-stationary"
+	ClassBreakStationary = "break-stationary"
+	ClassUnitRoot        = "unit-root"
+	ClassUnitRootBreaks  = "unit-root-breaks"
+	ClassExplosive       = "explosive"
+	ClassInconclusive    = "inconclusive"
+)
+
+// Recommended transformations.
+const (
+	TransformNone         = "none"
+	TransformDetrend      = "detrend"
+	TransformShiftDummies = "shift-dummies"
+	TransformDifference   = "difference"
+	TransformLogDiff      = "log-difference"
+	TransformSecondDiff   = "second-difference"
+)
+
+// evidence collects the results the verdict reads.
+type evidence struct {
+	adfC, adfT, kpssC, kpssT *schema.Result
+	za, ls1, bp, sadf        *schema.Result
+	dAdf, dKpss              *schema.Result // on the first difference
+	driftCheck               *schema.Result // right-tailed ADF with trend, when sadf rejects under drift
+	extra                    []*schema.Result
+}
+
+func has(set []string, id string) bool { return slices.Contains(set, id) }
+
+// verdict runs the verdict's tests (those not already run with the needed
+// trend) and fills r.series.Verdict.
+func (r *runner) verdict() error {
+	set := r.s.VerdictTests
+	if len(set) == 0 {
+		set = DefaultVerdictTests
+	}
+	var ev evidence
+	find := func(id string, trend core.Trend) *schema.Result {
+		for i := range r.series.Results {
+			res := &r.series.Results[i]
+			if res.Test == id && res.Trend == trend.String() && res.Variant != "first difference" {
+				return res
+			}
+		}
+		return nil
+	}
+	get := func(id string, trend core.Trend) (*schema.Result, error) {
+		if !has(set, id) {
+			return nil, nil
+		}
+		if res := find(id, trend); res != nil {
+			return res, nil
+		}
+		return r.run(id, trend, nil)
+	}
+	var err error
+	steps := []struct {
+		dst   **schema.Result
+		id    string
+		trend core.Trend
+	}{
+		{&ev.adfC, "adf", core.TrendConstant}, {&ev.adfT, "adf", core.TrendLinear},
+		{&ev.kpssC, "kpss", core.TrendConstant}, {&ev.kpssT, "kpss", core.TrendLinear},
+		{&ev.bp, "bp", r.bpTrend()},
+	}
+	for _, st := range steps {
+		if *st.dst, err = get(st.id, st.trend); err != nil {
+			return err
+		}
+	}
+	// The one-break unit-root tests: with the shift the analyst chose, or,
+	// left on auto, a level shift for a series without drift and a shift in
+	// level and slope for a trending one (a crisis can change growth).
+	shift := core.ShiftLevel
+	if r.s.Shift != "" {
+		shift, _ = core.ParseShift(r.s.Shift)
+	} else if drift(r.y) {
+		shift = core.ShiftBoth
+	}
+	for _, st := range []struct {
+		dst **schema.Result
+		id  string
+	}{{&ev.za, "za"}, {&ev.ls1, "ls1"}} {
+		if !has(set, st.id) {
+			continue
+		}
+		if *st.dst = find(st.id, core.TrendLinear); *st.dst != nil {
+			continue
+		}
+		if *st.dst, err = r.runWith(st.id, core.TrendLinear, nil, func(c *core.Config) { c.Shift = shift }); err != nil {
+			return err
+		}
+	}
+	// Explosiveness is judged on the log of a positive series: steady
+	// exponential growth is a unit root with drift in logs, not a bubble.
+	// The right-tailed SADF's null tables assume a driftless random walk and
+	// over-reject under a real drift; so when the (log) series has a
+	// significant drift, an explosive verdict also needs the right-tailed
+	// ADF with a linear trend to reject (its null distribution does not
+	// depend on the drift), and that result is reported beside SADF.
+	if has(set, "sadf") {
+		base, variant := r.y, ""
+		if positiveSeries(r.y) && r.s.Transform == "" {
+			base = make([]float64, len(r.y))
+			for i, v := range r.y {
+				base[i] = math.Log(v)
+			}
+			variant = "log levels"
+		}
+		res, err := r.run("sadf", core.TrendConstant, base)
+		if err != nil {
+			return err
+		}
+		if res != nil {
+			last := &r.series.Results[len(r.series.Results)-1]
+			last.Variant = variant
+			ev.sadf = last
+			if res.Reject && drift(base) {
+				res2, err := r.runWith("adf", core.TrendLinear, base, func(c *core.Config) { c.RightTail = true })
+				if err != nil {
+					return err
+				}
+				if res2 != nil {
+					last := &r.series.Results[len(r.series.Results)-1]
+					last.Variant = strings.TrimPrefix(variant+", right-tailed, drift check", ", ")
+					ev.driftCheck = last
+				}
+			}
+		}
+	}
+	for _, id := range set {
+		if !slices.Contains(DefaultVerdictTests, id) {
+			res, err := get(id, r.trendFor(id))
+			if err != nil {
+				return err
+			}
+			if res != nil {
+				ev.extra = append(ev.extra, res)
+			}
+		}
+	}
+	// Order of integration: the first difference, tested before the level is
+	// accepted as I(1) (Dickey & Pantula 1987 order).
+	if len(r.y) > 12 && (has(set, "adf") || has(set, "kpss")) {
+		dy := make([]float64, len(r.y)-1)
+		for i := range dy {
+			dy[i] = r.y[i+1] - r.y[i]
+		}
+		for _, st := range []struct {
+			dst **schema.Result
+			id  string
+		}{{&ev.dAdf, "adf"}, {&ev.dKpss, "kpss"}} {
+			if !has(set, st.id) {
+				continue
+			}
+			res, err := r.run(st.id, core.TrendConstant, dy)
+			if err != nil {
+				return err
+			}
+			if res != nil {
+				res.Variant = "first difference"
+				last := &r.series.Results[len(r.series.Results)-1]
+				last.Variant = "first difference"
+				*st.dst = last
+			}
+		}
+	}
+	v := decide(&ev, r)
+	v.Tests = set
+	if r.s.Window != "" {
+		v.Window = r.windowCheck(v.Breaks, &ev)
+	}
+	r.series.Verdict = v
+	return nil
+}
+
+// bpTrend dates breaks in the mean for a series without a clear trend and
+// in the trend function otherwise (both coefficients allowed to change).
+func (r *runner) bpTrend() core.Trend {
+	if r.s.Trend == "constant" || r.s.Trend == "none" {
+		return core.TrendConstant
+	}
+	if r.s.Trend == "linear" {
+		return core.TrendLinear
+	}
+	// Auto: a trend is judged present when the average change is large
+	// against its dispersion (|mean Δy| > 2 s.e.), the drift check below.
+	if drift(r.y) {
+		return core.TrendLinear
+	}
+	return core.TrendConstant
+}
+
+// drift reports whether the mean of Δy differs from zero by more than two
+// standard errors (common practice, no source).
+func drift(y []float64) bool {
+	n := len(y) - 1
+	if n < 3 {
+		return false
+	}
+	m := (y[n] - y[0]) / float64(n)
+	ss := 0.0
+	for i := 1; i <= n; i++ {
+		d := y[i] - y[i-1] - m
+		ss += d * d
+	}
+	se := math.Sqrt(ss/float64(n-1)) / math.Sqrt(float64(n))
+	return se > 0 && math.Abs(m) > 2*se
+}
+
+func rejects(r *schema.Result) bool    { return r != nil && r.Reject }
+func notRejects(r *schema.Result) bool { return r != nil && !r.Reject }
+func describe(r *schema.Result) string {
+	if r == nil {
+		return ""
+	}
+	name := r.Test
+	switch r.Test {
+	case "adf":
+		name = "ADF"
+	case "kpss":
+		name = "KPSS"
+	case "za":
+		name = "Zivot-Andrews"
+	case "ls1":
+		name = "Lee-Strazicich (one break)"
+	case "bp":
+		name = "Bai-Perron"
+	case "sadf":
+		name = "SADF"
+	}
+	spec := r.Trend
+	if r.Variant == "first difference" {
+		spec = "first difference"
+	}
+	stat := "n/a"
+	if r.Statistic != nil {
+		stat = fmt.Sprintf("%.3f", *r.Statistic)
+	}
+	p := ""
+	if r.PValue != nil {
+		p = fmt.Sprintf(", p=%.3f", *r.PValue)
+	}
+	dec := "does not reject"
+	if r.Reject {
+		dec = "rejects"
+	}
+	return fmt.Sprintf("%s (%s): %s %s at %g (statistic %s%s)", name, spec, dec, nullShort(r), r.Level, stat, p)
+}
+
+func nullShort(r *schema.Result) string {
+	switch r.Test {
+	case "kpss":
+		return "stationarity"
+	case "bp":
+		return "no break"
+	case "sadf", "gsadf":
+		return "no explosive episode"
+	case "py":
+		return "no trend break"
+	}
+	return "a unit root"
+}
+
+func breakText(b []schema.Break) string {
+	var parts []string
+	for _, x := range b {
+		if x.Date != "" {
+			parts = append(parts, x.Date)
+		} else {
+			parts = append(parts, fmt.Sprintf("observation %d", x.Index))
+		}
+	}
+	return strings.Join(parts, " and ")
+}
+
+// decide applies the decision rules. The rules, in order:
+//
+//  1. sadf rejects: explosive.
+//  2. ADF (constant) rejects and KPSS (level) does not: stationary.
+//  3. ADF (trend) rejects and KPSS (trend) does not: trend-stationary.
+//  4. A unit root is rejected once a break is allowed by the LM test (ls1),
+//     or by za when ls1 was not run: break-stationary at the break dates
+//     (shift dummies). za rejecting while ls1 does not is not enough:
+//     minimum-t tests over-reject when the break is also present under the
+//     unit-root null (Lee & Strazicich 2003); the contradiction is reported
+//     and the later rules decide.
+//  5. ADF rejects while KPSS rejects too, and Bai-Perron dates breaks: the
+//     KPSS rejection is explained by the shifts: break-stationary.
+//  6. No ADF rejection and KPSS rejects: a unit root; with Bai-Perron breaks,
+//     unit-root-breaks. The order is 2 when the first difference is not
+//     rejected by ADF and rejected by KPSS, else 1.
+//  7. Anything else (no test rejects, or contradictions the breaks do not
+//     explain): inconclusive, naming the results on each side.
+func decide(ev *evidence, r *runner) *schema.Verdict {
+	v := &schema.Verdict{Breaks: []schema.Break{}}
+	var sup, against []string
+	add := func(list *[]string, res *schema.Result) {
+		if d := describe(res); d != "" {
+			*list = append(*list, d)
+		}
+	}
+	zero, one, two := 0, 1, 2
+	bpBreaks := []schema.Break(nil)
+	if rejects(ev.bp) && len(ev.bp.Breaks) > 0 {
+		bpBreaks = ev.bp.Breaks
+	}
+	positive := positiveSeries(r.y)
+	diffTransform := func() string {
+		if positive && r.s.Transform == "" && spread(r.y) >= 2 {
+			return TransformLogDiff
+		}
+		return TransformDifference
+	}
+	switch {
+	case rejects(ev.sadf) && (ev.driftCheck == nil || ev.driftCheck.Reject):
+		v.Class = ClassExplosive
+		v.Transform = TransformNone
+		add(&sup, ev.sadf)
+		if ev.driftCheck != nil {
+			add(&sup, ev.driftCheck)
+		}
+		add(&against, firstRejecting(ev.adfC, ev.adfT))
+		eps := episodesText(ev.sadf)
+		v.Explanation = "An explosive root: the right-tailed SADF test rejects the unit root in favour of explosive behaviour" + eps +
+			". No differencing removes an explosive root; model the episode itself (for example a regime or bubble model) and treat the standard tests with caution."
+	case rejects(ev.adfC) && notRejects(ev.kpssC):
+		v.Class, v.Order, v.Transform = ClassStationary, &zero, TransformNone
+		add(&sup, ev.adfC)
+		add(&sup, ev.kpssC)
+		v.Explanation = "Stationary around a constant mean: ADF rejects a unit root and KPSS does not reject level stationarity. Model it in levels."
+	case rejects(ev.adfT) && notRejects(ev.kpssT):
+		v.Class, v.Order, v.Transform = ClassTrendStationary, &zero, TransformDetrend
+		add(&sup, ev.adfT)
+		add(&sup, ev.kpssT)
+		if notRejects(ev.adfC) {
+			add(&against, ev.adfC)
+		}
+		v.Explanation = "Stationary around a linear trend: ADF with a trend rejects a unit root and KPSS does not reject trend stationarity. Model it in levels with a deterministic trend (detrend); differencing would over-difference."
+	case rejects(ev.ls1) || (ev.ls1 == nil && rejects(ev.za)):
+		lead := ev.ls1
+		if lead == nil {
+			lead = ev.za
+		}
+		v.Class, v.Order, v.Transform = ClassBreakStationary, &zero, TransformShiftDummies
+		v.Breaks = append(v.Breaks, lead.Breaks...)
+		add(&sup, lead)
+		if ev.ls1 != nil && rejects(ev.za) {
+			add(&sup, ev.za)
+		}
+		for _, res := range []*schema.Result{ev.adfC, ev.adfT} {
+			if notRejects(res) {
+				add(&against, res)
+			}
+		}
+		what := shiftWords(lead.Shift)
+		v.Explanation = fmt.Sprintf("Stationary around %s after %s: %s rejects a unit root once the break is allowed.", what, breakText(lead.Breaks), describeName(lead))
+		if notRejects(ev.adfC) || notRejects(ev.adfT) {
+			v.Explanation += " The standard ADF test's failure to reject is explained by the shift (Perron 1989)."
+		}
+		v.Explanation += " Model it in levels with shift dummies at the break dates; do not difference."
+		if len(bpBreaks) > 0 {
+			v.Explanation += " Bai-Perron dates breaks at " + breakText(bpBreaks) + "."
+		}
+	case (rejects(ev.adfC) || rejects(ev.adfT)) && len(bpBreaks) > 0:
+		v.Class, v.Order, v.Transform = ClassBreakStationary, &zero, TransformShiftDummies
+		v.Breaks = append(v.Breaks, bpBreaks...)
+		add(&sup, firstRejecting(ev.adfC, ev.adfT))
+		add(&sup, ev.bp)
+		add(&against, firstRejecting(ev.kpssC, ev.kpssT))
+		v.Explanation = fmt.Sprintf("Stationary around shifts at %s: ADF rejects a unit root and Bai-Perron dates the breaks; the KPSS rejection is what level shifts produce in a stationary series. Model it in levels with shift dummies.", breakText(bpBreaks))
+	case !rejects(ev.adfC) && !rejects(ev.adfT) && (rejects(ev.kpssC) || rejects(ev.kpssT)) && (ev.adfC != nil || ev.adfT != nil):
+		add(&sup, ev.adfC)
+		add(&sup, ev.adfT)
+		add(&sup, firstRejecting(ev.kpssC, ev.kpssT))
+		if ev.ls1 != nil {
+			add(&sup, ev.ls1)
+		}
+		v.Drift = drift(r.y)
+		v.Order, v.Transform = &one, diffTransform()
+		if ev.dAdf != nil && !ev.dAdf.Reject && rejects(ev.dKpss) {
+			v.Order, v.Transform = &two, TransformSecondDiff
+			add(&sup, ev.dAdf)
+		} else if ev.dAdf != nil {
+			if ev.dAdf.Reject {
+				add(&sup, ev.dAdf)
+			} else {
+				add(&against, ev.dAdf)
+			}
+		}
+		if rejects(ev.za) && notRejects(ev.ls1) {
+			add(&against, ev.za)
+		}
+		driftWords := "without drift"
+		if v.Drift {
+			driftWords = "with drift"
+		}
+		if len(bpBreaks) > 0 {
+			v.Class = ClassUnitRootBreaks
+			v.Breaks = append(v.Breaks, bpBreaks...)
+			add(&sup, ev.bp)
+			v.Explanation = fmt.Sprintf("A unit root (%s) even allowing for breaks: ADF does not reject, KPSS rejects stationarity, the break-aware unit-root tests do not reject, and Bai-Perron dates shifts at %s. Difference it; consider shift dummies in the differenced model at those dates.", driftWords, breakText(bpBreaks))
+		} else {
+			v.Class = ClassUnitRoot
+			v.Explanation = fmt.Sprintf("A unit root (%s): ADF does not reject a unit root and KPSS rejects stationarity", driftWords)
+			if ev.ls1 != nil || ev.za != nil {
+				v.Explanation += ", also when a break is allowed"
+			}
+			v.Explanation += ". Difference it."
+		}
+		if rejects(ev.za) && notRejects(ev.ls1) {
+			v.Explanation += fmt.Sprintf(" Zivot-Andrews rejects with a break at %s, but minimum-t tests over-reject when a break is also present under the unit-root null (Lee & Strazicich 2003); the Lee-Strazicich LM test, which allows the break under the null, does not reject, so the unit root stands.", breakText(ev.za.Breaks))
+		}
+		if *v.Order == 2 {
+			v.Explanation += " The first difference itself looks I(1) (ADF does not reject, KPSS rejects): difference twice."
+		} else if v.Transform == TransformLogDiff {
+			v.Explanation += " The series is positive and spans a wide range: the log difference (growth rate) is the natural transform."
+		}
+	default:
+		v.Class = ClassInconclusive
+		v.Transform = diffTransform()
+		for _, res := range []*schema.Result{ev.adfC, ev.adfT, ev.za, ev.ls1} {
+			if rejects(res) {
+				add(&sup, res)
+			} else {
+				add(&against, res)
+			}
+		}
+		for _, res := range []*schema.Result{ev.kpssC, ev.kpssT} {
+			if rejects(res) {
+				add(&against, res)
+			} else {
+				add(&sup, res)
+			}
+		}
+		switch {
+		case !rejects(ev.adfC) && !rejects(ev.adfT) && !rejects(ev.kpssC) && !rejects(ev.kpssT):
+			v.Explanation = "Inconclusive: neither null is rejected — the unit-root tests cannot reject a unit root and KPSS cannot reject stationarity. The sample is probably too short or the root too close to one for the tests to tell. Differencing is the cautious choice for forecasting; a longer sample would help."
+		default:
+			v.Explanation = "Inconclusive: the tests contradict each other (see the results for and against) and no break explains the contradiction. Differencing is the cautious choice; check the settings (trend, lags) and the sample."
+		}
+	}
+	for _, res := range ev.extra {
+		if res.Reject {
+			sup = append(sup, describe(res))
+		} else {
+			against = append(against, describe(res))
+		}
+	}
+	v.Supporting = sup
+	v.Against = against
+	if len(against) > 0 && v.Class != ClassInconclusive {
+		v.Explanation += " Not every result agrees: see the results against."
+	}
+	return v
+}
+
+func describeName(r *schema.Result) string {
+	s := describe(r)
+	if i := strings.Index(s, ":"); i > 0 {
+		return s[:i]
+	}
+	return s
+}
+
+func shiftWords(shift string) string {
+	switch shift {
+	case "slope":
+		return "a change in its trend slope"
+	case "level+slope":
+		return "a shift in its level and trend slope"
+	}
+	return "a level shift"
+}
+
+func firstRejecting(rs ...*schema.Result) *schema.Result {
+	for _, r := range rs {
+		if rejects(r) {
+			return r
+		}
+	}
+	return nil
+}
+
+func episodesText(r *schema.Result) string {
+	if len(r.Episodes) == 0 {
+		return ""
+	}
+	var parts []string
+	for _, e := range r.Episodes {
+		a, b := e.Start.Date, e.End.Date
+		if a == "" {
+			a, b = fmt.Sprint(e.Start.Index), fmt.Sprint(e.End.Index)
+		}
+		parts = append(parts, a+" to "+b)
+	}
+	return " (episodes " + strings.Join(parts, ", ") + ")"
+}
+
+func positiveSeries(y []float64) bool {
+	for _, x := range y {
+		if !(x > 0) {
+			return false
+		}
+	}
+	return len(y) > 0
+}
+
+func spread(y []float64) float64 {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, v := range y {
+		lo, hi = math.Min(lo, v), math.Max(hi, v)
+	}
+	if lo <= 0 {
+		return 0
+	}
+	return hi / lo
+}
+
+// windowCheck resolves the suspected window, reports whether any verdict or
+// dating break falls inside it, and runs Perron's (1989) known-break test at
+// the break date estimated inside the window (the date minimising the sum of
+// squared residuals of a trend-and-shift regression, Bai & Perron 1998 for
+// one break restricted to the window).
+func (r *runner) windowCheck(vb []schema.Break, ev *evidence) *schema.WindowCheck {
+	from, to, _ := strings.Cut(r.s.Window, ":")
+	w := &schema.WindowCheck{From: strings.TrimSpace(from), To: strings.TrimSpace(to)}
+	lo, err1 := resolveIndex(r.dates, r.freq, w.From, len(r.y))
+	hi, err2 := resolveIndex(r.dates, r.freq, w.To, len(r.y))
+	if err1 != nil || err2 != nil || lo > hi {
+		r.series.Warnings = append(r.series.Warnings, fmt.Sprintf("window %q could not be placed in this series", r.s.Window))
+		return w
+	}
+	all := append([]schema.Break(nil), vb...)
+	for _, res := range []*schema.Result{ev.bp, ev.za, ev.ls1} {
+		if res != nil {
+			all = append(all, res.Breaks...)
+		}
+	}
+	for _, b := range all {
+		if b.Index >= lo && b.Index <= hi {
+			w.BreakInside = true
+		}
+	}
+	tb := bestBreakIn(r.y, lo, hi, r.s.Shift)
+	if tb <= 0 {
+		return w
+	}
+	saved := r.breakIndex
+	r.breakIndex = tb
+	n := len(r.series.Results)
+	res, err := r.run("p89", core.TrendLinear, nil)
+	r.breakIndex = saved
+	if err == nil && res != nil {
+		// Keep the known-break result with the window rather than among the tests.
+		w.Known = res
+		r.series.Results = r.series.Results[:n]
+	}
+	return w
+}
+
+// bestBreakIn returns the TB in [lo, hi] minimising the SSR of y on
+// [1, t, DU_t (, DT_t)] (brute force: the window is short), or 0.
+func bestBreakIn(y []float64, lo, hi int, shift string) int {
+	T := len(y)
+	lo, hi = max(lo, 3), min(hi, T-3)
+	if lo > hi {
+		return 0
+	}
+	var ls core.LS
+	cols := [][]float64{make([]float64, T), make([]float64, T), make([]float64, T)}
+	if shift == "slope" || shift == "level+slope" {
+		cols = append(cols, make([]float64, T))
+	}
+	best, bestTB := math.Inf(1), 0
+	for tb := lo; tb <= hi; tb++ {
+		for t := 1; t <= T; t++ {
+			cols[0][t-1] = 1
+			cols[1][t-1] = float64(t)
+			du := 0.0
+			if t > tb {
+				du = 1
+			}
+			cols[2][t-1] = du
+			if len(cols) == 4 {
+				cols[3][t-1] = du * float64(t-tb)
+			}
+		}
+		f, err := ls.Fit(cols, y)
+		if err == nil && f.SSR < best {
+			best, bestTB = f.SSR, tb
+		}
+	}
+	return bestTB
+}
