@@ -135,19 +135,31 @@ func dotRow(L []float64, k, i, j, n int) float64 {
 func Standardize(dst, y []float64) (out []float64, mean, sd float64) {
 	n := len(y)
 	dst = grow(dst, n)
+	// Series near the limits of float64 are first divided by their largest
+	// magnitude, so the sums below neither overflow nor underflow; mean and
+	// sd are reported on the original scale.
+	scale := 1.0
+	big := 0.0
 	for _, v := range y {
-		mean += v
+		big = math.Max(big, math.Abs(v))
+	}
+	if big > 1e150 || (big > 0 && big < 1e-150) {
+		scale = big
+	}
+	for _, v := range y {
+		mean += v / scale
 	}
 	mean /= float64(n)
 	for _, v := range y {
-		sd += (v - mean) * (v - mean)
+		d := v/scale - mean
+		sd += d * d
 	}
 	sd = math.Sqrt(sd / float64(n))
 	if sd == 0 || math.IsNaN(sd) {
 		sd = 1
 	}
 	for i, v := range y {
-		dst[i] = (v - mean) / sd
+		dst[i] = (v/scale - mean) / sd
 	}
-	return dst, mean, sd
+	return dst, mean * scale, sd * scale
 }

@@ -169,3 +169,21 @@ func TestLSSingular(t *testing.T) {
 		t.Fatal("collinear design: want ErrSingular")
 	}
 }
+
+func TestStandardizeExtremeScales(t *testing.T) {
+	// Common practice, no source: standardising must not overflow or
+	// underflow for series near the limits of float64.
+	for _, scale := range []float64{1, 1e200, 1e-200, 1e6} {
+		y := []float64{1 * scale, 3 * scale, 2 * scale, 5 * scale}
+		z, m, s := Standardize(nil, y)
+		want := []float64{-1.1832159566199232, 0.16903085094570333, -0.50709255283711, 1.5212776585113297}
+		for i := range z {
+			if math.Abs(z[i]-want[i]) > 1e-12 {
+				t.Errorf("scale %g: z[%d] = %g, want %g", scale, i, z[i], want[i])
+			}
+		}
+		if math.Abs(m/scale-2.75) > 1e-12 || math.Abs(s/scale-1.479019945774904) > 1e-12 {
+			t.Errorf("scale %g: mean %g sd %g", scale, m, s)
+		}
+	}
+}

@@ -1,0 +1,768 @@
+package breaks
+
+import (
+	"math"
+
+	"github.com/rootshift/rootshift/core"
+)
+
+// This file is the fast single-break search shared by p89, za and pio: the
+// innovational-outlier Dickey-Fuller regression
+//
+//	Δy_t = c + b t + θ DU_t + γ DT_t + δ D(TB)_t + (α-1) y_{t-1} + Σ_{j=1..k} c_j Δy_{t-j} + e_t
+//
+// (Perron 1989, eqs. (13)-(15); Zivot & Andrews 1992, eqs. (1)-(3) without
+// D(TB); Perron 1997, eqs. (1)-(2)), estimated at every candidate TB from
+// cross-products. Everything that does not depend on TB (the constant, the
+// trend, y_{t-1}, the lagged differences and Δy_t) is accumulated once per
+// series; the break regressors are zero for t <= TB, so their cross-products
+// with every other column are suffix sums
+//
+//	Σ_{t>TB} x_t,   Σ_{t>TB} (t-TB) x_t = Σ_{t>TB} t x_t - TB Σ_{t>TB} x_t,
+//
+// precomputed once for all TB, and the one-time dummy contributes the single
+// row t = TB+1. The series is standardised (core.Standardize) and the trend
+// is used as τ_t = (t - (T+1)/2)/T, DT as (t-TB)/T: the same column spaces,
+// hence the same t-ratios, with well-scaled cross-products.
+//
+// The TB-independent columns are factored once per series (Jacobi-scaled
+// Cholesky, see pfactor); per candidate only the one to three break columns
+// are residualised on them (Frisch-Waugh-Lovell) by one triangular solve,
+// and the remaining (nb+1)-square system is solved by core.Normal. Lag
+// selection reads every order from one factorisation, the orders being
+// leading blocks. Nothing is allocated in the candidate loop.
+
+// BreakRule is how a search picks the break date among the candidates.
+type BreakRule int
+
+const (
+	// MinTAlpha picks the TB that minimises the unit-root t-ratio t_α
+	// (Zivot & Andrews 1992; Perron 1997 "t_α̂" rule).
+	MinTAlpha BreakRule = iota
+	// MaxAbsTLevel picks the TB maximising |t_θ|, the t-ratio of the
+	// level-shift coefficient (Perron 1997, "|t_θ̂|" rule).
+	MaxAbsTLevel
+	// MaxAbsTSlope picks the TB maximising |t_γ|, the t-ratio of the
+	// slope-shift coefficient (Perron 1997, "|t_γ̂|" rule).
+	MaxAbsTSlope
+)
+
+// String names the rule in words.
+func (r BreakRule) String() string {
+	switch r {
+	case MaxAbsTLevel:
+		return "max |t| on the level-shift coefficient"
+	case MaxAbsTSlope:
+		return "max |t| on the slope-shift coefficient"
+	}
+	return "min t on alpha"
+}
+
+// TSigCritical is the 10% two-sided normal value used by the t-sig lag rule
+// (Ng & Perron 1995; the same value as core's LagTSig).
+const TSigCritical = 1.645
+
+// Spec describes one single-break search. Candidates run over TB = Lo..Hi,
+// further restricted to TB >= kmax+2 so that both regimes are present in
+// every regression sample (see Searcher.Search).
+type Spec struct {
+	// Trend is core.TrendConstant or core.TrendLinear (core.TrendNone is
+	// treated as constant: a break model always has an intercept).
+	Trend core.Trend
+	// Terms are the break regressors.
+	Terms Terms
+	// LagRule is core.LagFixed (use Lags), core.LagTSig, core.LagAIC or
+	// core.LagBIC (choose k in 0..MaxLags for each candidate); other values
+	// are treated as core.LagTSig.
+	LagRule core.LagRule
+	Lags    int
+	MaxLags int
+	// Lo and Hi bound the candidates (1-based, inclusive).
+	Lo, Hi int
+	// Rule picks the break among candidates.
+	Rule BreakRule
+	// OnlyTAlpha computes only t_α (Candidate.Alpha and the t-ratios of the
+	// break terms are NaN) when Rule is MinTAlpha: the statistic-only path
+	// of the simulation engine.
+	OnlyTAlpha bool
+}
+
+// Candidate is the regression at one break date.
+type Candidate struct {
+	// TB is the break date, Lags the augmentation order used, NObs the
+	// number of observations of the regression (t = Lags+2..T).
+	TB, Lags, NObs int
+	// TAlpha is the t-ratio of α-1; Alpha is α̂.
+	TAlpha, Alpha float64
+	// TLevel, TSlope and TDummy are the t-ratios of θ, γ and δ (NaN when the
+	// term is not in the model).
+	TLevel, TSlope, TDummy float64
+}
+
+// Searcher runs single-break searches. It keeps its scratch space between
+// calls so that repeated searches on series of the same length do not
+// allocate. The zero value is ready to use; a Searcher is not safe for
+// concurrent use.
+type Searcher struct {
+	T, kk, p int // series length, largest lag, index of Δy_t among the base columns
+	ys       []float64
+	x        []float64   // base columns, row-major by 1-based t (see prepare)
+	s1, st   []float64   // suffix sums Σ_{u>=m} x_u and Σ_{u>=m} τ_u x_u, row-major by m = 1..T+1
+	gram     [][]float64 // gram[k]: cross-products of the base columns over t = k+2..T, (p+1)^2
+	acc      []float64
+	sel      pfactor
+	fin      []pfactor
+	codesBuf []int
+	maxK     int
+	bcode    [3]int
+	bv       []float64 // raw break × base cross-products, [break][base column]
+	bb       [9]float64
+	wb, wtmp []float64 // residualised break columns, [break][row of L]
+	sbb      [9]float64
+	sby, xb  [3]float64
+	a, b, z  []float64 // scratch of pfactor.build
+	nrm      core.Normal
+	path     []Candidate
+}
+
+// Column codes of a system: base columns are >= 0, break columns negative.
+const (
+	codeDU = -1
+	codeDT = -2
+	codeD  = -3
+)
+
+// prepare standardises y and builds the per-series sums for lags up to kk.
+// All per-observation arrays are row-major: row t (1-based) holds the np
+// base columns 0 const, 1 τ, 2 y_{t-1}, 2+j Δy_{t-j} (j = 1..kk), p = kk+3
+// Δy_t (0 where a term does not exist).
+func (w *Searcher) prepare(y []float64, kk int) {
+	T := len(y)
+	w.T, w.kk, w.p = T, kk, 3+kk
+	np := w.p + 1
+	w.ys = standardize(w.ys, y)
+	ys := w.ys
+	w.x = searchGrow(w.x, (T+2)*np)
+	w.s1 = searchGrow(w.s1, (T+2)*np)
+	w.st = searchGrow(w.st, (T+2)*np)
+	x, s1, st := w.x, w.s1, w.st
+	for c := 0; c < np; c++ {
+		x[c], x[(T+1)*np+c] = 0, 0
+		s1[(T+1)*np+c], st[(T+1)*np+c] = 0, 0
+	}
+	for t := 1; t <= T; t++ {
+		row := x[t*np : (t+1)*np]
+		row[0] = 1
+		row[1] = (float64(t) - float64(T+1)/2) / float64(T)
+		for c := 2; c < np; c++ {
+			row[c] = 0
+		}
+		if t >= 2 {
+			row[2] = ys[t-2]
+			row[w.p] = ys[t-1] - ys[t-2]
+		}
+		for j := 1; j <= kk && t >= j+2; j++ {
+			row[2+j] = ys[t-j-1] - ys[t-j-2]
+		}
+	}
+	for t := T; t >= 1; t-- {
+		row := x[t*np : (t+1)*np]
+		tt := row[1]
+		a1, at := s1[(t+1)*np:(t+2)*np], st[(t+1)*np:(t+2)*np]
+		b1, bt := s1[t*np:(t+1)*np], st[t*np:(t+1)*np]
+		for c, v := range row {
+			b1[c] = a1[c] + v
+			bt[c] = at[c] + tt*v
+		}
+	}
+	// Gram matrices over t = k+2..T for k = 0..kk, by one backward sweep.
+	if len(w.gram) < kk+1 {
+		w.gram = append(w.gram, make([][]float64, kk+1-len(w.gram))...)
+	}
+	w.gram = w.gram[:kk+1]
+	w.acc = searchGrow(w.acc, np*np)
+	acc := w.acc
+	for i := range acc {
+		acc[i] = 0
+	}
+	for t := T; t >= 2; t-- {
+		row := x[t*np : (t+1)*np]
+		for i, xi := range row {
+			ai := acc[i*np : i*np+i+1]
+			for j := range ai {
+				ai[j] += xi * row[j]
+			}
+		}
+		if k := t - 2; k <= kk {
+			w.gram[k] = searchGrow(w.gram[k], np*np)
+			copy(w.gram[k], acc)
+		}
+	}
+}
+
+// pfactor is the TB-independent part of a regression: the columns P
+// (codes; constant, trend, y_{t-1} and lags) over t = k+2..T, their
+// Jacobi-scaled Cholesky factor L L' = D P'P D, and the projections
+// ry = L^{-1} D P'Δy and, when the regression has a target column x outside
+// P (y_{t-1} in the final regression), rx = L^{-1} D P'x. By the
+// Frisch-Waugh-Lovell theorem a regression on [P, B, x] gives the same
+// coefficients and standard errors of B and x as the regression of the
+// residuals of Δy on the residuals of [B, x] after projecting on P; those
+// residual cross-products follow from L and the raw cross-products of B, so
+// per candidate only the break columns are residualised.
+type pfactor struct {
+	k      int // lag order: sample t = k+2..T
+	codes  []int
+	l, d   []float64
+	linv   []float64 // 1/L_ii
+	rank   int
+	ry, rx []float64
+	yy     float64 // Δy'Δy
+	// Residual cross-products of the target x and Δy after P.
+	xxRes, xyRes, yyRes float64
+	xx                  float64 // raw x'x
+	target              int     // code of x, or -1
+}
+
+// build factors P = codes over t = k+2..T from gram[k]; target is the code
+// of the column kept outside P (-1: none).
+func (f *pfactor) build(w *Searcher, codes []int, k, target int) {
+	f.k, f.target = k, target
+	f.codes = append(f.codes[:0], codes...)
+	K := len(codes)
+	g := w.gram[k]
+	np := w.p + 1
+	at := func(a, b int) float64 { return g[max(a, b)*np+min(a, b)] }
+	a := searchGrow(w.a, K*K)
+	by := searchGrow(w.b, K)
+	bx := searchGrow(w.z, K)
+	for i := 0; i < K; i++ {
+		for j := 0; j <= i; j++ {
+			a[i*K+j] = at(codes[i], codes[j])
+		}
+		by[i] = at(w.p, codes[i])
+		if target >= 0 {
+			bx[i] = at(target, codes[i])
+		}
+	}
+	w.a, w.b, w.z = a, by, bx
+	f.l = searchGrow(f.l, K*K)
+	f.d = searchGrow(f.d, K)
+	f.ry = searchGrow(f.ry, K)
+	f.rx = searchGrow(f.rx, K)
+	f.rank = cholPrefix(a, by, K, f.l, f.d, f.ry)
+	f.linv = searchGrow(f.linv, K)
+	for i := 0; i < f.rank; i++ {
+		f.linv[i] = 1 / f.l[i*K+i]
+	}
+	f.yy = at(w.p, w.p)
+	f.yyRes = f.yy
+	for i := 0; i < f.rank; i++ {
+		f.yyRes -= f.ry[i] * f.ry[i]
+	}
+	if target >= 0 && f.rank == K {
+		forwardScaled(f.l, f.linv, f.d, bx, f.rx, K, K)
+		f.xx = at(target, target)
+		f.xxRes, f.xyRes = f.xx, at(w.p, target)
+		for i := 0; i < K; i++ {
+			f.xxRes -= f.rx[i] * f.rx[i]
+			f.xyRes -= f.rx[i] * f.ry[i]
+		}
+	}
+}
+
+// forwardScaled solves L w = D v for the first n rows (L is K×K row-major,
+// linv holds 1/L_ii).
+func forwardScaled(l, linv, d, v, w []float64, K, n int) {
+	for i := 0; i < n; i++ {
+		w[i] = (v[i]*d[i] - searchDot(l[i*K:i*K+i], w[:i])) * linv[i]
+	}
+}
+
+// breakVectors computes, for tb, the raw cross-products of each break
+// column of spec with every base column (and Δy), and between break columns.
+// It returns the number of break columns.
+func (w *Searcher) breakVectors(spec *Spec, tb int) int {
+	T := w.T
+	m := tb + 1
+	tauTB := (float64(tb) - float64(T+1)/2) / float64(T)
+	nb := 0
+	np := w.p + 1
+	for _, on := range [3]struct {
+		ok   bool
+		code int
+	}{{spec.Terms.Level, codeDU}, {spec.Terms.Slope, codeDT}, {spec.Terms.Dummy, codeD}} {
+		if !on.ok {
+			continue
+		}
+		w.bcode[nb] = on.code
+		v := w.bv[nb*np : (nb+1)*np]
+		s1, st, x := w.s1[m*np:(m+1)*np], w.st[m*np:(m+1)*np], w.x[m*np:(m+1)*np]
+		switch on.code {
+		case codeDU:
+			copy(v, s1)
+		case codeDT:
+			for c := range v {
+				v[c] = st[c] - tauTB*s1[c]
+			}
+		default:
+			copy(v, x)
+		}
+		nb++
+	}
+	for i := 0; i < nb; i++ {
+		for j := 0; j <= i; j++ {
+			w.bb[i*3+j] = w.breakCross(w.bcode[i], w.bcode[j], m, tauTB)
+		}
+	}
+	return nb
+}
+
+// residualise forward-solves the break columns against factor f (first n
+// rows) into w.wb[b*maxK : ...].
+func (w *Searcher) residualise(f *pfactor, nb, n int) {
+	np := w.p + 1
+	K := len(f.codes)
+	for b := 0; b < nb; b++ {
+		v := w.bv[b*np : (b+1)*np]
+		raw := w.wtmp[:n]
+		for i := 0; i < n; i++ {
+			raw[i] = v[f.codes[i]]
+		}
+		forwardScaled(f.l, f.linv, f.d, raw, w.wb[b*w.maxK:b*w.maxK+n], K, n)
+	}
+}
+
+// breakCross is the cross-product of two break columns over t > TB.
+func (w *Searcher) breakCross(a, b, m int, tauTB float64) float64 {
+	if a < b {
+		a, b = b, a
+	}
+	np := w.p + 1
+	n := w.s1[m*np]
+	switch {
+	case a == codeDU && b == codeDU:
+		return n
+	case a == codeDT && b == codeDT:
+		return w.st[m*np+1] - 2*tauTB*w.st[m*np] + tauTB*tauTB*n
+	case a == codeD && b == codeD:
+		return 1
+	case a == codeDU && b == codeDT:
+		return w.st[m*np] - tauTB*n
+	case a == codeDU && b == codeD:
+		return 1
+	default: // DT × D
+		return 1 / float64(w.T)
+	}
+}
+
+// factors builds the TB-independent factors of the search: the selection
+// block (when a lag rule is used) and the final block of every order needed.
+func (w *Searcher) factors(spec *Spec) {
+	kk := w.kk
+	if len(w.fin) < kk+1 {
+		w.fin = append(w.fin, make([]pfactor, kk+1-len(w.fin))...)
+	}
+	w.maxK = 2 + 1 + kk
+	w.bv = searchGrow(w.bv, 3*(w.p+1))
+	w.wb = searchGrow(w.wb, 3*w.maxK)
+	w.wtmp = searchGrow(w.wtmp, w.maxK)
+	w.codesBuf = append(w.codesBuf[:0], 0)
+	if spec.Trend == core.TrendLinear {
+		w.codesBuf = append(w.codesBuf, 1)
+	}
+	nd := len(w.codesBuf)
+	// codes returns the deterministic codes followed by extra and lags 1..k.
+	codes := func(extra bool, k int) []int {
+		c := w.codesBuf[:nd]
+		if extra {
+			c = append(c, 2)
+		}
+		for j := 1; j <= k; j++ {
+			c = append(c, 2+j)
+		}
+		w.codesBuf = c
+		return c
+	}
+	if spec.LagRule == core.LagFixed {
+		w.fin[kk].build(w, codes(false, kk), kk, 2)
+		return
+	}
+	for k := 0; k <= kk; k++ {
+		w.fin[k].build(w, codes(false, k), k, 2)
+	}
+	c := codes(true, kk)
+	w.sel.build(w, c, kk, -1)
+}
+
+// kmax returns the largest lag order the search needs.
+func (spec *Spec) kmax() int {
+	if spec.LagRule == core.LagFixed {
+		return spec.Lags
+	}
+	return spec.MaxLags
+}
+
+// Search runs the search on y and returns the chosen candidate. When path is
+// true, the second result holds every candidate in order of TB (owned by
+// the Searcher, valid until the next call). Candidates TB < kmax+2 are
+// skipped (the regression sample must contain both regimes); candidates
+// whose design is singular are skipped. Errors wrap core.ErrTooShort when no
+// candidate is left and core.ErrSingular when every candidate is singular;
+// y must be finite and non-constant (checked by the callers).
+func (w *Searcher) Search(y []float64, spec *Spec, path bool) (Candidate, []Candidate, error) {
+	kk := spec.kmax()
+	w.prepare(y, kk)
+	return w.search(spec, path)
+}
+
+func (w *Searcher) search(spec *Spec, path bool) (Candidate, []Candidate, error) {
+	T, kk := w.T, w.kk
+	lo, hi := max(spec.Lo, kk+2, MinHead), min(spec.Hi, T-MinTail)
+	w.path = w.path[:0]
+	best := Candidate{TB: -1}
+	if lo > hi {
+		return best, nil, core.Errorf("", core.ErrTooShort, "no break candidate with T=%d and %d lags (first %d, last %d)", T, kk, lo, hi)
+	}
+	w.factors(spec)
+	bestScore := math.Inf(1)
+	for tb := lo; tb <= hi; tb++ {
+		c, ok := w.at(spec, tb)
+		if !ok {
+			continue
+		}
+		if path {
+			w.path = append(w.path, c)
+		}
+		var score float64
+		switch spec.Rule {
+		case MaxAbsTLevel:
+			score = -math.Abs(c.TLevel)
+		case MaxAbsTSlope:
+			score = -math.Abs(c.TSlope)
+		default:
+			score = c.TAlpha
+		}
+		if score < bestScore {
+			bestScore, best = score, c
+		}
+	}
+	if best.TB < 0 {
+		return best, nil, core.Errorf("", core.ErrSingular, "the regression is singular at every break candidate")
+	}
+	if path {
+		return best, w.path, nil
+	}
+	return best, nil, nil
+}
+
+// at estimates the regression at tb with the spec's lag rule.
+func (w *Searcher) at(spec *Spec, tb int) (Candidate, bool) {
+	nb := w.breakVectors(spec, tb)
+	k := spec.Lags
+	if spec.LagRule != core.LagFixed {
+		var ok bool
+		k, ok = w.selectLag(spec, nb)
+		if !ok {
+			return Candidate{}, false
+		}
+	}
+	return w.final(spec, tb, k, nb)
+}
+
+// smallSystem solves, with core.Normal, the regression of the residualised
+// Δy on the residualised break columns (w.sbb, w.sby) and one more
+// residualised column x (xb: its cross-products with the breaks, xx its
+// norm, xy its cross-product with Δy; yy is the residual Δy'Δy). K is the
+// total number of regressors of the full regression (for the degrees of
+// freedom), n its number of observations. It returns the t-ratio of x and
+// the SSR and leaves the solution in w.nrm; ok is false for a singular
+// system.
+func (w *Searcher) smallSystem(nb int, xb []float64, xx, xy, yy float64, n, K int) (t, ssr float64, ok bool) {
+	m := &w.nrm
+	q := nb + 1
+	m.Reset(q)
+	for i := 0; i < nb; i++ {
+		for j := 0; j <= i; j++ {
+			m.A[i*q+j] = w.sbb[i*3+j]
+		}
+		m.B[i] = w.sby[i]
+		// A break column (almost) in the span of P is a singular candidate.
+		if !(w.sbb[i*3+i] > 1e-10*w.bb[i*3+i]) {
+			return 0, 0, false
+		}
+	}
+	for j := 0; j < nb; j++ {
+		m.A[nb*q+j] = xb[j]
+	}
+	m.A[nb*q+nb] = xx
+	m.B[nb] = xy
+	m.YY, m.N = yy, n
+	ssr, err := m.Solve()
+	df := float64(n - K)
+	if err != nil || df <= 0 || !(ssr > 0) {
+		return 0, 0, false
+	}
+	t = m.Coef[nb] / math.Sqrt(ssr/df*m.InvDiag(nb))
+	return t, ssr, !math.IsNaN(t) && !math.IsInf(t, 0)
+}
+
+// tLast returns the squared t-ratio of the extra column x in the regression
+// of the residualised Δy on the residualised [B, x] (w.sbb, w.sby, w.xb;
+// x'x = xx, x'Δy = xy, Δy'Δy = yy) with df degrees of freedom, the sign of
+// its coefficient and the SSR. It writes out an LDL' factorisation of the
+// (nb+1)-square system with x last (no square roots), the lag-selection
+// twin of smallSystem (which uses core.Normal); ok is false for a singular
+// system.
+func (w *Searcher) tLast(nb int, xx, xy, yy float64, df int) (t2, sign, ssr float64, ok bool) {
+	if df <= 0 {
+		return 0, 0, 0, false
+	}
+	var l [9]float64
+	var dg, ux, uy [3]float64
+	qxx, qxy, qyy := 0.0, 0.0, 0.0
+	for i := 0; i < nb; i++ {
+		sii := w.sbb[i*3+i]
+		if !(sii > 1e-10*w.bb[i*3+i]) {
+			return 0, 0, 0, false
+		}
+		v := sii
+		for j := 0; j < i; j++ {
+			v -= l[i*3+j] * l[i*3+j] * dg[j]
+		}
+		if !(v > 1e-12*sii) {
+			return 0, 0, 0, false
+		}
+		dg[i] = v
+		for r := i + 1; r < nb; r++ {
+			u := w.sbb[r*3+i]
+			for j := 0; j < i; j++ {
+				u -= l[r*3+j] * l[i*3+j] * dg[j]
+			}
+			l[r*3+i] = u / v
+		}
+		a, b := w.xb[i], w.sby[i]
+		for j := 0; j < i; j++ {
+			a -= l[i*3+j] * ux[j]
+			b -= l[i*3+j] * uy[j]
+		}
+		ux[i], uy[i] = a, b
+		qxx += a * a / v
+		qxy += a * b / v
+		qyy += b * b / v
+	}
+	px := xx - qxx
+	if !(px > 1e-12*xx) {
+		return 0, 0, 0, false
+	}
+	zx := xy - qxy
+	ssr = yy - qyy - zx*zx/px
+	if !(ssr > 0) {
+		return 0, 0, 0, false
+	}
+	t2 = zx * zx / px / (ssr / float64(df))
+	sign = 1
+	if zx < 0 {
+		sign = -1
+	}
+	return t2, sign, ssr, true
+}
+
+// selectLag chooses k in 0..kk on the common sample t = kk+2..T. The
+// factor of P = [const, trend, y_{t-1}, Δy_{t-1}, ..., Δy_{t-kk}] is computed
+// once per series; every order k is the leading block of P of size
+// i = nd+1+k plus the break columns, so one forward solve of the break
+// columns against L gives all orders: for order k the last lag (column
+// i-1 of P) is the extra column of a small system whose other columns are
+// the breaks residualised on the first i-1 columns of P.
+func (w *Searcher) selectLag(spec *Spec, nb int) (int, bool) {
+	f := &w.sel
+	kk := w.kk
+	nd := len(f.codes) - 1 - kk
+	i0 := nd + 1 // size of the order-0 block
+	if f.rank < i0 {
+		return 0, false
+	}
+	kTop := min(f.rank-i0, kk)
+	w.residualise(f, nb, i0+kTop)
+	n := w.T - kk - 1
+	K := len(f.codes)
+	// Cumulative residual cross-products after the first r columns of P.
+	for i := 0; i < nb; i++ {
+		for j := 0; j <= i; j++ {
+			w.sbb[i*3+j] = w.bb[i*3+j]
+		}
+		w.sby[i] = w.bv[i*(w.p+1)+w.p]
+	}
+	yy := f.yy
+	add := func(r int) {
+		for i := 0; i < nb; i++ {
+			wi := w.wb[i*w.maxK+r]
+			for j := 0; j <= i; j++ {
+				w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
+			}
+			w.sby[i] -= wi * f.ry[r]
+		}
+		yy -= f.ry[r] * f.ry[r]
+	}
+	for r := 0; r < i0-1; r++ {
+		add(r)
+	}
+	ic := spec.LagRule == core.LagAIC || spec.LagRule == core.LagBIC
+	pen := 2.0
+	if spec.LagRule == core.LagBIC {
+		pen = math.Log(float64(n))
+	}
+	best, bestIC := 0, math.Inf(1)
+	for k := 0; k <= kTop; k++ {
+		// Column r = i0-1+k of P (y_{t-1} for k = 0, lag k otherwise) is the
+		// extra column; the breaks are residualised on columns 0..r-1.
+		r := i0 - 1 + k
+		lrr := f.l[r*K+r]
+		for i := 0; i < nb; i++ {
+			w.xb[i] = w.wb[i*w.maxK+r] * lrr
+		}
+		t2, _, ssr, ok := w.tLast(nb, lrr*lrr, f.ry[r]*lrr, yy, n-(r+1+nb))
+		if !ok {
+			if k == 0 {
+				return 0, false
+			}
+			break
+		}
+		if ic {
+			if v := math.Log(ssr/float64(n)) + pen*float64(r+1+nb)/float64(n); v < bestIC {
+				best, bestIC = k, v
+			}
+		} else if k > 0 && t2 > TSigCritical*TSigCritical {
+			best = k // the largest significant order wins
+		}
+		add(r)
+	}
+	return best, true
+}
+
+// final estimates the k-lag regression at tb on t = k+2..T: P = [const,
+// trend, lags 1..k] is factored once per series, y_{t-1} is the target
+// column, and the breaks are residualised on P.
+func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, bool) {
+	f := &w.fin[k]
+	K := len(f.codes)
+	if f.rank < K {
+		return Candidate{}, false
+	}
+	w.residualise(f, nb, K)
+	np := w.p + 1
+	for i := 0; i < nb; i++ {
+		for j := 0; j <= i; j++ {
+			w.sbb[i*3+j] = w.bb[i*3+j]
+		}
+		w.sby[i] = w.bv[i*np+w.p]
+		w.xb[i] = w.bv[i*np+2]
+	}
+	for r := 0; r < K; r++ {
+		for i := 0; i < nb; i++ {
+			wi := w.wb[i*w.maxK+r]
+			for j := 0; j <= i; j++ {
+				w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
+			}
+			w.sby[i] -= wi * f.ry[r]
+			w.xb[i] -= wi * f.rx[r]
+		}
+	}
+	n := w.T - k - 1
+	Ktot := K + nb + 1
+	if spec.OnlyTAlpha && spec.Rule == MinTAlpha {
+		// Statistic only: t_α from the written-out factorisation.
+		t2, sign, _, ok := w.tLast(nb, f.xxRes, f.xyRes, f.yyRes, n-Ktot)
+		return Candidate{TB: tb, Lags: k, NObs: n, Alpha: math.NaN(), TAlpha: sign * math.Sqrt(t2),
+			TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}, ok
+	}
+	tA, ssr, ok := w.smallSystem(nb, w.xb[:nb], f.xxRes, f.xyRes, f.yyRes, n, Ktot)
+	if !ok {
+		return Candidate{}, false
+	}
+	m := &w.nrm
+	c := Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + m.Coef[nb], TAlpha: tA,
+		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
+	s2 := ssr / float64(n-Ktot)
+	for i := 0; i < nb; i++ {
+		t := m.Coef[i] / math.Sqrt(s2*m.InvDiag(i))
+		switch w.bcode[i] {
+		case codeDU:
+			c.TLevel = t
+		case codeDT:
+			c.TSlope = t
+		default:
+			c.TDummy = t
+		}
+	}
+	return c, true
+}
+
+// cholPrefix factors the Jacobi-scaled K×K matrix D A D (lower triangle of
+// a, row-major) as L L' and computes z = L^{-1} D b, stopping at the first
+// pivot that is not numerically positive (relative 1e-12, as core.Normal).
+// It returns the number of pivots completed: every leading block of that
+// size or less is a valid factorisation of the corresponding sub-regression.
+func cholPrefix(a, b []float64, K int, l, d, z []float64) int {
+	for i := 0; i < K; i++ {
+		v := a[i*K+i]
+		if !(v > 0) {
+			d[i] = 0
+			continue
+		}
+		d[i] = 1 / math.Sqrt(v)
+	}
+	for j := 0; j < K; j++ {
+		if d[j] == 0 {
+			return j
+		}
+		lj := l[j*K : j*K+j]
+		s := a[j*K+j]*d[j]*d[j] - searchDot(lj, lj)
+		if s <= 1e-12 {
+			return j
+		}
+		ljj := math.Sqrt(s)
+		l[j*K+j] = ljj
+		for i := j + 1; i < K; i++ {
+			l[i*K+j] = (a[i*K+j]*d[i]*d[j] - searchDot(l[i*K:i*K+j], lj)) / ljj
+		}
+		z[j] = (b[j]*d[j] - searchDot(l[j*K:j*K+j], z[:j])) / ljj
+	}
+	return K
+}
+
+func searchDot(x, y []float64) float64 {
+	s := 0.0
+	for i, v := range x {
+		s += v * y[i]
+	}
+	return s
+}
+
+// standardize writes (y - mean)/sd into dst (core.Standardize) after
+// dividing y by its largest absolute value, so that neither tiny nor huge
+// series under- or overflow in the sums of squares.
+func standardize(dst, y []float64) []float64 {
+	dst = searchGrow(dst, len(y))
+	s := 0.0
+	for _, v := range y {
+		s = max(s, math.Abs(v))
+	}
+	if s > 0 && !math.IsInf(s, 0) {
+		for i, v := range y {
+			dst[i] = v / s
+		}
+	} else {
+		copy(dst, y)
+	}
+	dst, _, _ = core.Standardize(dst, dst)
+	return dst
+}
+
+func searchGrow(s []float64, n int) []float64 {
+	if cap(s) < n {
+		return make([]float64, n)
+	}
+	return s[:n]
+}
