@@ -1,0 +1,462 @@
+package breaks
+
+// Lumsdaine & Papell (1997) unit-root test with two endogenous breaks:
+// Lumsdaine, R.L. & Papell, D.H. (1997), "Multiple Trend Breaks and the
+// Unit-Root Hypothesis", Review of Economics and Statistics 79(2), 212-218,
+// extending Zivot & Andrews (1992) eq. (3) to two breaks:
+//
+//	Δy_t = μ + β t + θ_1 DU1_t + γ_1 DT1_t + θ_2 DU2_t + γ_2 DT2_t
+//	       + α y_{t-1} + Σ_{i=1}^{k} c_i Δy_{t-i} + e_t,
+//
+// with DUj_t = 1(t > TB_j) and DTj_t = (t - TB_j) 1(t > TB_j). Model AA has
+// the two level shifts only (cfg.Shift level), model CC level and slope
+// shifts (cfg.Shift level+slope); a slope-only model is not in the paper
+// and is refused. The statistic is the t-ratio on α minimised jointly over
+// the pairs lo <= TB_1, TB_1 + 2 <= TB_2 <= hi (trimming cfg.TrimOr(),
+// default 15%), with the lag order chosen per pair by the t-sig rule with
+// kmax = 8 (Lumsdaine & Papell 1997) or fixed. The deterministic part is
+// always a constant and a linear trend.
+//
+// The search reuses the data cross-products built once per series and
+// changes only the break atoms per pair (see ls.go).
+
+import (
+	"context"
+	"math"
+
+	"github.com/rootshift/rootshift/core"
+	"github.com/rootshift/rootshift/core/schema"
+)
+
+func init() {
+	core.Register(core.Info{
+		ID:       "lp",
+		Name:     "Lumsdaine-Papell test, two breaks",
+		Null:     "unit root without breaks (breaks only under the alternative)",
+		Tail:     "left",
+		Citation: "Lumsdaine & Papell (1997), Review of Economics and Statistics 79(2); Zivot & Andrews (1992) eq. (3) with two breaks",
+		Run:      runLP,
+		NewStat:  func(T int, cfg *core.Config) core.StatFunc { return newStatADF("lp", cfg) },
+	})
+}
+
+// adfForm is the regression form of an ADF-type break test.
+type adfForm int
+
+const (
+	formLP adfForm = iota // Lumsdaine-Papell: constant, trend, DU (, DT)
+	formIO                // innovational outlier: constant, DU, D(TB)
+	formAO                // additive outlier: two steps, D(TB) lags
+)
+
+// adfTest describes one ADF-type break test.
+type adfTest struct {
+	id    string
+	form  adfForm
+	nb    int
+	slope bool
+}
+
+// adfWork is the per-goroutine scratch of the ADF-type statistics. The
+// cross-products among the candidate-independent atoms (constant, trend,
+// y_{t-1}, Δy_t and its lags) are tabulated once per series for every
+// window start t0 = 2..kmax+2; per candidate only the entries that involve
+// a break column are computed.
+type adfWork struct {
+	d    lmXData
+	g    lmGram
+	cols []lmColumn
+	dep  lmColumn
+	ys   []float64
+	kmax int
+	nf   int
+	tbl  []float64 // tbl[(t0-2)*nf*nf + i*nf + j]
+	fi   []int
+}
+
+// fixedIndex is the index of column c in the tabulated atoms, or -1.
+func (w *adfWork) fixedIndex(c lmColumn) int {
+	if len(c) != 1 || c[0].c != 1 {
+		return -1
+	}
+	a := c[0].a
+	switch {
+	case a.kind == lmKData:
+		return 2 + a.v
+	case a.v != 0:
+		return -1
+	case a.kind == lmKStep:
+		return 0
+	case a.kind == lmKRamp:
+		return 1
+	}
+	return -1
+}
+
+func (w *adfWork) fillTo(g *lmGram, n, t0 int) {
+	cols := w.cols[:n]
+	if t0 > w.kmax+2 || t0 < 2 {
+		g.fill(&w.d, cols, w.dep, t0)
+		return
+	}
+	if cap(w.fi) < n+1 {
+		w.fi = make([]int, n+1)
+	}
+	fi := w.fi[:n+1]
+	for i, c := range cols {
+		fi[i] = w.fixedIndex(c)
+	}
+	fi[n] = 2 + lmDy
+	nf := w.nf
+	tb := w.tbl[(t0-2)*nf*nf : (t0-1)*nf*nf]
+	dot := func(i, j int, ci, cj lmColumn) float64 {
+		if fi[i] >= 0 && fi[j] >= 0 {
+			return tb[fi[i]*nf+fi[j]]
+		}
+		return w.d.colDot(ci, cj, t0)
+	}
+	g.n = n
+	g.a = lmGrow(g.a, n*n)
+	g.b = lmGrow(g.b, n)
+	for i := 0; i < n; i++ {
+		for j := 0; j <= i; j++ {
+			g.a[i*n+j] = dot(i, j, cols[i], cols[j])
+		}
+		g.b[i] = dot(i, n, cols[i], w.dep)
+	}
+	g.yy = tb[fi[n]*nf+fi[n]]
+	g.obs = w.d.T - t0 + 1
+}
+
+func (w *adfWork) setup(y []float64, kmax int) {
+	w.ys, _, _ = core.Standardize(w.ys, y)
+	w.d.build(w.ys, kmax)
+	w.dep = append(w.dep[:0], lmTerm{lmAtom{lmKData, lmDy}, 1})
+	w.kmax = kmax
+	nf := 2 + w.d.nc
+	w.nf = nf
+	w.tbl = lmGrow(w.tbl, (kmax+1)*nf*nf)
+	at := func(i int) lmAtom {
+		switch i {
+		case 0:
+			return lmAtom{lmKStep, 0}
+		case 1:
+			return lmAtom{lmKRamp, 0}
+		}
+		return lmAtom{lmKData, i - 2}
+	}
+	for t0 := 2; t0 <= kmax+2; t0++ {
+		tb := w.tbl[(t0-2)*nf*nf : (t0-1)*nf*nf]
+		for i := 0; i < nf; i++ {
+			for j := 0; j <= i; j++ {
+				v := w.d.atomDot(at(i), at(j), t0)
+				tb[i*nf+j], tb[j*nf+i] = v, v
+			}
+		}
+	}
+}
+
+// nDet is the number of deterministic regressors of the one-step forms.
+func (a adfTest) nDet() int {
+	switch a.form {
+	case formLP:
+		if a.slope {
+			return 2 + 2*a.nb
+		}
+		return 2 + a.nb
+	case formIO:
+		return 1 + 2*a.nb
+	}
+	return a.nb // AO: the D(TB_j)_t dummies
+}
+
+// stat computes the t-ratio on y_{t-1} at break dates tbs.
+func (w *adfWork) stat(a adfTest, tbs []int, spec lmLagSpec) (float64, int, int, error) {
+	kmax := spec.k
+	var ds lmDesign
+	var ncol int
+	if a.form == formAO {
+		ds = lmDesign{base: 1 + a.nb, group: 1 + a.nb, stat: 0}
+	} else {
+		nd := a.nDet()
+		ds = lmDesign{base: nd + 1, group: 1, stat: nd}
+	}
+	ncol = ds.width(kmax)
+	if cap(w.cols) < ncol {
+		w.cols = make([]lmColumn, ncol)
+	}
+	cols := w.cols[:ncol]
+	set := func(i int, ts ...lmTerm) { cols[i] = append(cols[i][:0], ts...) }
+	one := func(kind, v int) lmTerm { return lmTerm{lmAtom{kind, v}, 1} }
+	switch a.form {
+	case formLP:
+		i := 0
+		set(i, one(lmKStep, 0))
+		set(i+1, one(lmKRamp, 0))
+		i += 2
+		for _, tb := range tbs {
+			set(i, one(lmKStep, tb))
+			i++
+		}
+		if a.slope {
+			for _, tb := range tbs {
+				set(i, one(lmKRamp, tb))
+				i++
+			}
+		}
+		set(i, one(lmKData, lmYlag))
+		for l := 1; l <= kmax; l++ {
+			set(i+l, one(lmKData, lmDy+l))
+		}
+	case formIO:
+		i := 0
+		set(i, one(lmKStep, 0))
+		i++
+		for _, tb := range tbs {
+			set(i, one(lmKStep, tb))
+			set(i+1, one(lmKPulse, tb+1))
+			i += 2
+		}
+		set(i, one(lmKData, lmYlag))
+		for l := 1; l <= kmax; l++ {
+			set(i+l, one(lmKData, lmDy+l))
+		}
+	case formAO:
+		// Step 1 (Perron & Vogelsang 1992): ỹ_t = y_t - μ̂ - Σ δ̂_j DU_jt,
+		// i.e. y minus its regime means. In the second step
+		// ỹ_{t-1} = y_{t-1} - μ̂ - Σ δ̂_j 1(t > TB_j + 1), while Δỹ_t and
+		// Δỹ_{t-i} differ from Δy_t and Δy_{t-i} only by the pulses
+		// D(TB_j)_{t-i}, i = 0..k, which are regressors: they are replaced
+		// by Δy without changing the fit.
+		py := w.d.py
+		T := w.d.T
+		prev := 0
+		var means [3]float64
+		for j := 0; j <= len(tbs); j++ {
+			end := T
+			if j < len(tbs) {
+				end = tbs[j]
+			}
+			means[j] = (py[end] - py[prev]) / float64(end-prev)
+			prev = end
+		}
+		c := cols[0][:0]
+		c = append(c, one(lmKData, lmYlag), lmTerm{lmAtom{lmKStep, 0}, -means[0]})
+		for j, tb := range tbs {
+			c = append(c, lmTerm{lmAtom{lmKStep, tb + 1}, -(means[j+1] - means[j])})
+		}
+		cols[0] = c
+		for j, tb := range tbs {
+			set(1+j, one(lmKPulse, tb+1))
+		}
+		for l := 1; l <= kmax; l++ {
+			// Group l: the dummies D(TB_j)_{t-l}, then the lag Δy_{t-l}
+			// last (the column the t-sig rule tests).
+			b := ds.base + (l-1)*ds.group
+			for j, tb := range tbs {
+				set(b+j, one(lmKPulse, tb+1+l))
+			}
+			set(b+a.nb, one(lmKData, lmDy+l))
+		}
+	}
+	return lmSelectAndTest(w, &w.g, ds, spec)
+}
+
+// adfPrepare validates input and settings of an ADF-type break test and
+// returns the lag spec and the candidate range.
+func adfPrepare(a adfTest, y []float64, cfg *core.Config) (spec lmLagSpec, lo, hi, gap int, err error) {
+	if err = CheckSeries(a.id, y, 20); err != nil {
+		return
+	}
+	T := len(y)
+	extra := a.nDet() + 1
+	if a.form == formAO {
+		extra = 1 + 2*a.nb // the D(TB) lag dummies are counted by hand below
+	}
+	if spec, err = lmLagSpecFor(a.id, cfg, T, extra); err != nil {
+		return
+	}
+	if a.form == formAO {
+		// k more dummies per break.
+		for spec.k > 0 && T-spec.k-1-(spec.k*(1+a.nb)+1+a.nb+1) < 10 {
+			spec.k--
+			if spec.rule == core.LagFixed {
+				err = core.Errorf(a.id, core.ErrTooShort, "%d lags leave too few observations for T=%d", cfg.Lags, T)
+				return
+			}
+		}
+	}
+	lo, hi, err = Candidates(T, cfg.TrimOr())
+	if err != nil {
+		err = WrapError(a.id, err)
+		return
+	}
+	// Every break regressor must vary inside the regression sample t >= k+2.
+	lo = max(lo, spec.k+3)
+	gap = lmMinGap
+	if a.form == formAO {
+		// The dummies D(TB)_{t-i}, i = 0..k, must stay in the sample and
+		// must not coincide between the two breaks.
+		hi = min(hi, T-spec.k-2)
+		gap = max(gap, spec.k+2)
+	}
+	if lo+(a.nb-1)*gap > hi {
+		err = core.Errorf(a.id, core.ErrTooShort, "no break candidate left with T=%d, trimming %g and %d lags", T, cfg.TrimOr(), spec.k)
+	}
+	return
+}
+
+// adfTestOf resolves the form and model of test id under cfg.
+func adfTestOf(id string, cfg *core.Config) (adfTest, error) {
+	switch id {
+	case "lp":
+		switch cfg.Shift {
+		case core.ShiftLevel:
+			return adfTest{id: id, form: formLP, nb: 2}, nil
+		case core.ShiftBoth:
+			return adfTest{id: id, form: formLP, nb: 2, slope: true}, nil
+		}
+		return adfTest{}, core.Errorf(id, core.ErrSettings, "shift %q: Lumsdaine & Papell define model AA (level) and model CC (level+slope) only", cfg.Shift)
+	case "cmrio1", "cmrio2", "cmrao1", "cmrao2":
+		if cfg.Shift != core.ShiftLevel {
+			return adfTest{}, core.Errorf(id, core.ErrSettings, "shift %q: Clemente, Montanes & Reyes test shifts in the mean (level) only", cfg.Shift)
+		}
+		a := adfTest{id: id, form: formIO, nb: 1}
+		if id[3:5] == "ao" {
+			a.form = formAO
+		}
+		if id[5] == '2' {
+			a.nb = 2
+		}
+		return a, nil
+	}
+	return adfTest{}, core.Errorf(id, core.ErrUnknown, "not an ADF-type break test")
+}
+
+// adfSearch runs the minimum-t search of an ADF-type break test.
+func adfSearch(ctx context.Context, w *adfWork, a adfTest, y []float64, cfg *core.Config, path bool) (lmSearchResult, lmLagSpec, error) {
+	spec, lo, hi, gap, err := adfPrepare(a, y, cfg)
+	if err != nil {
+		return lmSearchResult{}, spec, err
+	}
+	w.setup(y, spec.k)
+	f := func(tbs []int) (float64, int, int, error) { return w.stat(a, tbs, spec) }
+	var r lmSearchResult
+	if a.nb == 1 {
+		r, err = lmSearch1(ctx, lo, hi, f, path)
+	} else {
+		r, err = lmSearch2Gap(ctx, lo, hi, gap, f, path)
+	}
+	if e := lmSearchError(a.id, r, err); e != nil {
+		return r, spec, e
+	}
+	return r, spec, nil
+}
+
+func newStatADF(id string, cfg *core.Config) core.StatFunc {
+	var w adfWork
+	return func(y []float64) (float64, error) {
+		a, err := adfTestOf(id, cfg)
+		if err != nil {
+			return 0, err
+		}
+		r, _, err := adfSearch(nil, &w, a, y, cfg, false)
+		if err != nil {
+			return 0, err
+		}
+		return r.tau, nil
+	}
+}
+
+// runADF runs an ADF-type break test and fills the common result fields.
+func runADF(ctx context.Context, id string, y []float64, cfg *core.Config) (*schema.Result, adfTest, lmSearchResult, error) {
+	if cfg == nil {
+		cfg = &core.Config{}
+	}
+	a, err := adfTestOf(id, cfg)
+	if err != nil {
+		return nil, a, lmSearchResult{}, err
+	}
+	var w adfWork
+	r, spec, err := adfSearch(ctx, &w, a, y, cfg, !cfg.NoPath)
+	if err != nil {
+		return nil, a, r, err
+	}
+	T := len(y)
+	res := &schema.Result{
+		Test:      id,
+		Statistic: schema.F(r.tau),
+		Tail:      "left",
+		Lags:      r.k,
+		LagRule:   lmLagRuleName(spec),
+		NObs:      r.nobs,
+		Level:     cfg.LevelOr(),
+		Shift:     core.ShiftLevel.String(),
+	}
+	for j := 0; j < a.nb; j++ {
+		res.Breaks = append(res.Breaks, BreakAt(r.tbs[j], T, cfg))
+	}
+	if a.nb == 1 {
+		res.Path = r.path
+	} else {
+		res.Surface = lmSurface(r, cfg)
+	}
+	return res, a, r, nil
+}
+
+func runLP(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, error) {
+	if cfg == nil {
+		cfg = &core.Config{}
+	}
+	res, a, _, err := runADF(ctx, "lp", y, cfg)
+	if err != nil {
+		return nil, err
+	}
+	res.Trend = core.TrendLinear.String()
+	res.Null = "unit root without structural breaks (the breaks are allowed under the alternative only)"
+	variant := "lp/AA"
+	res.Variant = "model AA"
+	if a.slope {
+		variant, res.Variant, res.Shift = "lp/CC", "model CC", core.ShiftBoth.String()
+	}
+	if cfg.Trend == core.TrendNone {
+		res.Warnings = append(res.Warnings, "lp always includes a constant and a linear trend; the trend setting was ignored")
+	}
+	applySearchInference(res, variant, "the minimum t statistic", cfg, nil)
+	if info, e := core.Lookup("lp"); e == nil {
+		if err := core.AddSimulated(ctx, info, len(y), cfg, res); err != nil {
+			return nil, WrapError("lp", err)
+		}
+	}
+	return res, nil
+}
+
+// lmSearch2Gap is lmSearch2 with a minimum distance gap between the breaks.
+func lmSearch2Gap(ctx context.Context, lo, hi, gap int, f lmCandStat, rows bool) (lmSearchResult, error) {
+	r := lmSearchResult{tau: math.Inf(1), lo: math.Inf(1), hi: math.Inf(-1)}
+	var tbs [2]int
+	for t1 := lo; t1+gap <= hi; t1++ {
+		if ctx != nil && ctx.Err() != nil {
+			return r, ctx.Err()
+		}
+		best := math.Inf(1)
+		for t2 := t1 + gap; t2 <= hi; t2++ {
+			tbs[0], tbs[1] = t1, t2
+			tau, k, nobs, err := f(tbs[:])
+			if err != nil {
+				r.lastErr = err
+				continue
+			}
+			r.ncand++
+			r.lo, r.hi = math.Min(r.lo, tau), math.Max(r.hi, tau)
+			best = math.Min(best, tau)
+			if tau < r.tau {
+				r.tau, r.tbs, r.k, r.nobs = tau, tbs, k, nobs
+			}
+		}
+		if rows && !math.IsInf(best, 1) {
+			r.rows = append(r.rows, schema.PathPoint{Index: t1, Statistic: best})
+		}
+	}
+	return r, nil
+}
