@@ -313,21 +313,26 @@ func breakText(b []schema.Break) string {
 
 // decide applies the decision rules. The rules, in order:
 //
-//  1. sadf rejects: explosive.
-//  2. ADF (constant) rejects and KPSS (level) does not: stationary.
-//  3. ADF (trend) rejects and KPSS (trend) does not: trend-stationary.
-//  4. A unit root is rejected once a break is allowed by the LM test (ls1),
+//  1. sadf rejects (and, under a drift, the right-tailed ADF with a trend):
+//     explosive.
+//  2. A break-aware unit-root test rejects (rule 5's test) and Bai-Perron
+//     dates breaks: break-stationary at the Bai-Perron dates. This comes
+//     before rules 3 and 4 because a level shift can also let a test
+//     without breaks reject, which would hide the shift.
+//  3. ADF (constant) rejects and KPSS (level) does not: stationary.
+//  4. ADF (trend) rejects and KPSS (trend) does not: trend-stationary.
+//  5. A unit root is rejected once a break is allowed by the LM test (ls1),
 //     or by za when ls1 was not run: break-stationary at the break dates
 //     (shift dummies). za rejecting while ls1 does not is not enough:
 //     minimum-t tests over-reject when the break is also present under the
 //     unit-root null (Lee & Strazicich 2003); the contradiction is reported
 //     and the later rules decide.
-//  5. ADF rejects while KPSS rejects too, and Bai-Perron dates breaks: the
+//  6. ADF rejects while KPSS rejects too, and Bai-Perron dates breaks: the
 //     KPSS rejection is explained by the shifts: break-stationary.
-//  6. No ADF rejection and KPSS rejects: a unit root; with Bai-Perron breaks,
+//  7. No ADF rejection and KPSS rejects: a unit root; with Bai-Perron breaks,
 //     unit-root-breaks. The order is 2 when the first difference is not
 //     rejected by ADF and rejected by KPSS, else 1.
-//  7. Anything else (no test rejects, or contradictions the breaks do not
+//  8. Anything else (no test rejects, or contradictions the breaks do not
 //     explain): inconclusive, naming the results on each side.
 func decide(ev *evidence, r *runner) *schema.Verdict {
 	v := &schema.Verdict{Breaks: []schema.Break{}}
@@ -361,6 +366,28 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 		eps := episodesText(ev.sadf)
 		v.Explanation = "An explosive root: the right-tailed SADF test rejects the unit root in favour of explosive behaviour" + eps +
 			". No differencing removes an explosive root; model the episode itself (for example a regime or bubble model) and treat the standard tests with caution."
+	case breakTestRejects(ev) && len(bpBreaks) > 0:
+		// A break-aware unit-root test rejects and Bai-Perron dates the
+		// breaks: stationary around them, even if a test without breaks
+		// would also call the series (trend-)stationary.
+		lead := breakLead(ev)
+		v.Class, v.Order, v.Transform = ClassBreakStationary, &zero, TransformShiftDummies
+		v.Breaks = append(v.Breaks, bpBreaks...)
+		add(&sup, lead)
+		if ev.ls1 != nil && rejects(ev.za) {
+			add(&sup, ev.za)
+		}
+		add(&sup, ev.bp)
+		for _, res := range []*schema.Result{ev.adfC, ev.adfT} {
+			if notRejects(res) {
+				add(&against, res)
+			}
+		}
+		v.Explanation = fmt.Sprintf("Stationary around %s at %s (dated by Bai-Perron): %s rejects a unit root once the break is allowed.", shiftWords(lead.Shift), breakText(bpBreaks), describeName(lead))
+		if notRejects(ev.adfC) && notRejects(ev.adfT) {
+			v.Explanation += " The standard ADF test's failure to reject is explained by the shift (Perron 1989)."
+		}
+		v.Explanation += " Model it in levels with shift dummies at the break dates; do not difference."
 	case rejects(ev.adfC) && notRejects(ev.kpssC):
 		v.Class, v.Order, v.Transform = ClassStationary, &zero, TransformNone
 		add(&sup, ev.adfC)
@@ -374,11 +401,8 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 			add(&against, ev.adfC)
 		}
 		v.Explanation = "Stationary around a linear trend: ADF with a trend rejects a unit root and KPSS does not reject trend stationarity. Model it in levels with a deterministic trend (detrend); differencing would over-difference."
-	case rejects(ev.ls1) || (ev.ls1 == nil && rejects(ev.za)):
-		lead := ev.ls1
-		if lead == nil {
-			lead = ev.za
-		}
+	case breakTestRejects(ev):
+		lead := breakLead(ev)
 		v.Class, v.Order, v.Transform = ClassBreakStationary, &zero, TransformShiftDummies
 		v.Breaks = append(v.Breaks, lead.Breaks...)
 		add(&sup, lead)
@@ -490,6 +514,25 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 		v.Explanation += " Not every result agrees: see the results against."
 	}
 	return v
+}
+
+// breakTestRejects: the LM test (ls1) rejects, or za when ls1 was not run.
+func breakTestRejects(ev *evidence) bool {
+	return rejects(ev.ls1) || (ev.ls1 == nil && rejects(ev.za))
+}
+
+// breakLead is the break-aware result that carries the verdict, with the
+// most precise date available: za dates a break by the unit-root t of a
+// regression that includes it, which locates a large shift more closely
+// than the LM test's minimum; the LM test is what guards the decision.
+func breakLead(ev *evidence) *schema.Result {
+	if ev.ls1 != nil && rejects(ev.ls1) {
+		if rejects(ev.za) && len(ev.za.Breaks) > 0 {
+			return ev.za
+		}
+		return ev.ls1
+	}
+	return ev.za
 }
 
 func describeName(r *schema.Result) string {

@@ -378,7 +378,13 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 				}
 			}
 			if all {
+				// A named column without a single value is reported with
+				// the skipped columns (batch runs must not drop it
+				// silently); an unnamed empty column (a trailing
+				// delimiter) is only a warning.
 				if trimSpace(head.fields[j]) != "" {
+					e := &ParseError{File: name, Row: head.line, Column: j + 1, ColumnName: names[j], Err: wrapf(ErrTooShort, "the column has no values")}
+					t.Skipped = append(t.Skipped, e)
 					t.Warnings = append(t.Warnings, fmt.Sprintf("column %d (%q) has no values: skipped", j+1, names[j]))
 				}
 				continue
