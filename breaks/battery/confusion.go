@@ -75,7 +75,18 @@ var Families = []Family{
 			}
 		}
 	}},
-	{"random walk with a level shift", "y_t = y_{t-1} + e_t + 8·1(t = T/2+1)", ClassUnitRootBreaks, []string{ClassUnitRoot}, func(y []float64, r *rand.Rand) {
+	{"random walk with a drift break", "y_t = y_{t-1} + 0.5 - 1(t > T/2) + e_t", ClassUnitRootBreaks, []string{ClassUnitRoot}, func(y []float64, r *rand.Rand) {
+		s := 0.0
+		for i := range y {
+			d := 0.5
+			if i >= len(y)/2 {
+				d = -0.5
+			}
+			s += d + r.NormFloat64()
+			y[i] = s
+		}
+	}},
+	{"random walk with a level shift", "y_t = y_{t-1} + e_t + 8·1(t = T/2+1)", ClassUnitRoot, []string{ClassUnitRootBreaks}, func(y []float64, r *rand.Rand) {
 		s := 0.0
 		for i := range y {
 			s += r.NormFloat64()

@@ -57,7 +57,7 @@ const (
 type evidence struct {
 	adfC, adfT, kpssC, kpssT *schema.Result
 	za, ls1, bp, sadf        *schema.Result
-	dAdf, dKpss              *schema.Result // on the first difference
+	dAdf, dKpss, dBp         *schema.Result // on the first difference
 	driftCheck               *schema.Result // right-tailed ADF with trend, when sadf rejects under drift
 	extra                    []*schema.Result
 }
@@ -186,7 +186,7 @@ func (r *runner) verdict() error {
 		for _, st := range []struct {
 			dst **schema.Result
 			id  string
-		}{{&ev.dAdf, "adf"}, {&ev.dKpss, "kpss"}} {
+		}{{&ev.dAdf, "adf"}, {&ev.dKpss, "kpss"}, {&ev.dBp, "bp"}} {
 			if !has(set, st.id) {
 				continue
 			}
@@ -329,8 +329,8 @@ func breakText(b []schema.Break) string {
 //     and the later rules decide.
 //  6. ADF rejects while KPSS rejects too, and Bai-Perron dates breaks: the
 //     KPSS rejection is explained by the shifts: break-stationary.
-//  7. No ADF rejection and KPSS rejects: a unit root; with Bai-Perron breaks,
-//     unit-root-breaks. The order is 2 when the first difference is not
+//  7. No ADF rejection and KPSS rejects: a unit root; with Bai-Perron breaks
+//     in the first difference (changes in drift), unit-root-breaks. The order is 2 when the first difference is not
 //     rejected by ADF and rejected by KPSS, else 1.
 //  8. Anything else (no test rejects, or contradictions the breaks do not
 //     explain): inconclusive, naming the results on each side.
@@ -366,7 +366,7 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 		eps := episodesText(ev.sadf)
 		v.Explanation = "An explosive root: the right-tailed SADF test rejects the unit root in favour of explosive behaviour" + eps +
 			". No differencing removes an explosive root; model the episode itself (for example a regime or bubble model) and treat the standard tests with caution."
-	case breakTestRejects(ev) && len(bpBreaks) > 0:
+	case breakTestRejects(ev) && corroborated(breakLead(ev), bpBreaks, len(r.y)):
 		// A break-aware unit-root test rejects and Bai-Perron dates the
 		// breaks: stationary around them, even if a test without breaks
 		// would also call the series (trend-)stationary.
@@ -456,11 +456,15 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 		if v.Drift {
 			driftWords = "with drift"
 		}
-		if len(bpBreaks) > 0 {
+		// Breaks in a unit-root series are dated on its first difference:
+		// a change in drift is a mean shift there, and Bai-Perron's
+		// inference holds for the stationary difference, not for the level.
+		if ev.dBp != nil && ev.dBp.Reject && len(ev.dBp.Breaks) > 0 {
+			dB := levelBreaks(ev.dBp.Breaks, len(r.y), r.dates)
 			v.Class = ClassUnitRootBreaks
-			v.Breaks = append(v.Breaks, bpBreaks...)
-			add(&sup, ev.bp)
-			v.Explanation = fmt.Sprintf("A unit root (%s) even allowing for breaks: ADF does not reject, KPSS rejects stationarity, the break-aware unit-root tests do not reject, and Bai-Perron dates shifts at %s. Difference it; consider shift dummies in the differenced model at those dates.", driftWords, breakText(bpBreaks))
+			v.Breaks = append(v.Breaks, dB...)
+			add(&sup, ev.dBp)
+			v.Explanation = fmt.Sprintf("A unit root (%s) with breaks in its drift: ADF does not reject, KPSS rejects stationarity, the break-aware unit-root tests do not reject, and Bai-Perron dates shifts in the mean of the first difference at %s. Difference it, with shift dummies for the drift at those dates.", driftWords, breakText(dB))
 		} else {
 			v.Class = ClassUnitRoot
 			v.Explanation = fmt.Sprintf("A unit root (%s): ADF does not reject a unit root and KPSS rejects stationarity", driftWords)
@@ -514,6 +518,25 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 		v.Explanation += " Not every result agrees: see the results against."
 	}
 	return v
+}
+
+// corroborated reports whether Bai-Perron dates a break close to the break
+// found by the break-aware unit-root test (within max(3, 5% of T)
+// observations): two procedures with different objectives dating the same
+// shift (common practice, no source).
+func corroborated(lead *schema.Result, bp []schema.Break, T int) bool {
+	if lead == nil {
+		return false
+	}
+	tol := max(3, T/20)
+	for _, a := range lead.Breaks {
+		for _, b := range bp {
+			if a.Index-b.Index <= tol && b.Index-a.Index <= tol {
+				return true
+			}
+		}
+	}
+	return false
 }
 
 // breakTestRejects: the LM test (ls1) rejects, or za when ls1 was not run.
@@ -575,6 +598,37 @@ func episodesText(r *schema.Result) string {
 		parts = append(parts, a+" to "+b)
 	}
 	return " (episodes " + strings.Join(parts, ", ") + ")"
+}
+
+// levelBreaks maps breaks dated on the first difference (observation i of
+// Δy is the change into observation i+1 of y) to the level's observations.
+func levelBreaks(bs []schema.Break, T int, dates []string) []schema.Break {
+	out := make([]schema.Break, len(bs))
+	for i, b := range bs {
+		b.Index++
+		b.Fraction = float64(b.Index) / float64(T)
+		b.Date = ""
+		if b.Index >= 1 && b.Index <= len(dates) {
+			b.Date = dates[b.Index-1]
+		}
+		shift := func(j int) int {
+			if j > 0 {
+				return j + 1
+			}
+			return j
+		}
+		b.Lower, b.Upper = shift(b.Lower), shift(b.Upper)
+		b.LowerDate, b.UpperDate = dateAt(dates, b.Lower), dateAt(dates, b.Upper)
+		out[i] = b
+	}
+	return out
+}
+
+func dateAt(dates []string, i int) string {
+	if i >= 1 && i <= len(dates) {
+		return dates[i-1]
+	}
+	return ""
 }
 
 func positiveSeries(y []float64) bool {
