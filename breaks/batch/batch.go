@@ -61,6 +61,10 @@ type Config struct {
 	Progress func(Summary)
 	// Stdin is read for the input "-".
 	Stdin io.Reader
+	// Lean drops the plotting data (break-search paths, statistic
+	// sequences, two-break surface rows) from the records, which are
+	// otherwise about ten times larger.
+	Lean bool
 }
 
 // Summary counts what a run did. Nothing is dropped silently: every series
@@ -185,6 +189,14 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 					if err != nil {
 						cancel()
 						continue
+					}
+				}
+				if cfg.Lean {
+					for i := range sr.Results {
+						lean(&sr.Results[i])
+					}
+					if v := sr.Verdict; v != nil && v.Window != nil && v.Window.Known != nil {
+						lean(v.Window.Known)
 					}
 				}
 				doc.Series = []schema.Series{sr}
@@ -431,6 +443,14 @@ func expand(inputs []string) ([]string, error) {
 		}
 	}
 	return out, nil
+}
+
+func lean(r *schema.Result) {
+	r.Path = nil
+	r.Sequence = nil
+	if r.Surface != nil {
+		r.Surface.Rows = nil
+	}
 }
 
 // JSONLSink writes each record as one compact JSON line.

@@ -54,6 +54,7 @@ func (e *env) batch(args []string) int {
 	fs.StringVar(&csvPath, "csv", "", "also write the summary CSV (one row per series and test) here")
 	fs.StringVar(&verdictPath, "verdicts", "", "also write the verdict table (CSV, one row per series) here")
 	fs.BoolVar(&quiet, "quiet", false, "no progress on standard error")
+	fs.BoolVar(&cfg.Lean, "lean", false, "leave out plotting data (search paths, sequences): records about ten times smaller")
 	inputs, err := parseInterleaved(fs, args)
 	if err != nil {
 		return e.usageExit(err)
