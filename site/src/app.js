@@ -1,0 +1,562 @@
+// The page: reads the analyst's data, sends it to the engine (Go compiled to
+// WebAssembly, running in a Web Worker started from a Blob URL) and shows the
+// findings. Nothing leaves the browser: the page's Content-Security-Policy
+// forbids every connection, and this script makes none.
+(() => {
+  'use strict';
+  const t0 = performance.now();
+  const $ = (id) => document.getElementById(id);
+  const timings = { loadStart: t0 };
+
+  // ---------- engine (worker) ----------
+
+  class EngineError extends Error {
+    constructor(kind, message) { super(message); this.kind = kind; this.name = 'EngineError'; }
+  }
+
+  function b64ToBytes(b64) {
+    if (typeof Uint8Array.fromBase64 === 'function') return Uint8Array.fromBase64(b64);
+    const s = atob(b64);
+    const out = new Uint8Array(s.length);
+    for (let i = 0; i < s.length; i++) out[i] = s.charCodeAt(i);
+    return out;
+  }
+
+  async function loadWasm() {
+    const el = $('rs-wasm');
+    const gz = b64ToBytes(el.textContent.trim());
+    el.textContent = ''; // free the text
+    timings.base64 = performance.now() - t0;
+    const gunzip = () => new Blob([gz]).stream().pipeThrough(new DecompressionStream('gzip'));
+    let module = null;
+    try {
+      // Compile while unpacking; the Response is built here from local bytes, nothing is fetched.
+      module = await WebAssembly.compileStreaming(new Response(gunzip(), { headers: { 'Content-Type': 'application/wasm' } }));
+    } catch (e) {
+      module = null;
+    }
+    timings.compiled = performance.now() - t0;
+    // Without a compiled module (an engine that cannot stream-compile), the worker compiles the bytes.
+    const bytes = module ? null : await new Response(gunzip()).arrayBuffer();
+    return { bytes, module };
+  }
+
+  const workerURL = URL.createObjectURL(new Blob([$('rs-worker').textContent], { type: 'text/javascript' }));
+
+  class Engine {
+    constructor(wasm) {
+      this.wasm = wasm;
+      this.seq = 0;
+      this.pending = new Map();
+      this.failures = 0; // consecutive failures before the engine became ready
+      this.start();
+    }
+    start() {
+      this.worker = new Worker(workerURL);
+      this.ready = new Promise((resolve, reject) => { this.readyResolve = resolve; this.readyReject = reject; });
+      this.ready.catch(() => {});
+      this.worker.onmessage = (e) => this.onMessage(e.data);
+      this.worker.onerror = (e) => { e.preventDefault(); this.fail('the engine failed: ' + (e.message || 'unknown error')); };
+      this.worker.postMessage({ type: 'init', module: this.wasm.module, bytes: this.wasm.bytes });
+    }
+    onMessage(m) {
+      if (m.type === 'ready') { this.version = m.version; this.failures = 0; this.readyResolve(m.version); return; }
+      if (m.type === 'fatal') { this.fail(m.message); return; }
+      const p = this.pending.get(m.id);
+      if (!p) return;
+      if (m.type === 'progress') { if (p.onProgress) p.onProgress(m.progress); return; }
+      if (m.type === 'reply') {
+        this.pending.delete(m.id);
+        let r;
+        try { r = JSON.parse(m.reply); } catch (e) { p.reject(new EngineError('internal', 'unreadable reply')); return; }
+        if (r.ok) p.resolve(r.result); else p.reject(new EngineError(r.error.kind, r.error.message));
+      }
+    }
+    fail(message) {
+      // Shown on the console so that the browser tests see engine failures.
+      console.error('rootshift engine: ' + message);
+      const err = new EngineError('internal', message);
+      this.readyReject(err);
+      if (++this.failures > 2) {
+        // The engine cannot start in this browser: stop retrying.
+        this.worker.terminate();
+        for (const p of this.pending.values()) p.reject(err);
+        this.pending.clear();
+        this.ready = Promise.reject(err);
+        this.ready.catch(() => {});
+        return;
+      }
+      this.restart(err);
+    }
+    restart(err) {
+      this.worker.terminate();
+      for (const p of this.pending.values()) p.reject(err);
+      this.pending.clear();
+      this.start();
+    }
+    cancel() { this.restart(new EngineError('cancelled', 'cancelled')); }
+    call(op, args, onProgress, transfer) {
+      return this.ready.then(() => new Promise((resolve, reject) => {
+        const id = ++this.seq;
+        this.pending.set(id, { resolve, reject, onProgress });
+        this.worker.postMessage({ type: 'call', id, op, args }, transfer || []);
+      }));
+    }
+    get busy() { return this.pending.size > 0; }
+  }
+
+  let engine = null;
+  const enginePromise = loadWasm().then((wasm) => {
+    engine = new Engine(wasm);
+    return engine.ready;
+  });
+
+  const toBytes = (data) => {
+    if (typeof data === 'string') return new TextEncoder().encode(data);
+    if (data instanceof ArrayBuffer) return new Uint8Array(data.slice(0));
+    if (ArrayBuffer.isView(data)) return new Uint8Array(data.buffer.slice(data.byteOffset, data.byteOffset + data.byteLength));
+    throw new EngineError('usage', 'data must be text, an ArrayBuffer or a Uint8Array');
+  };
+  const settingsText = (s) => {
+    if (s === undefined || s === null) return '';
+    if (typeof s === 'string') return s;
+    return JSON.stringify(s);
+  };
+
+  async function engineCall(op, args, onProgress) {
+    await enginePromise;
+    const transfer = args && args.bytes ? [args.bytes.buffer] : [];
+    return engine.call(op, args, onProgress, transfer);
+  }
+
+  // ---------- automation API ----------
+
+  const VERSION = '{{VERSION}}';
+  const api = {
+    version: () => VERSION,
+    ready: enginePromise.then(() => { timings.ready = performance.now() - t0; return VERSION; }),
+    timings,
+    analyze: (data, settings, name, onProgress) =>
+      engineCall('analyze', { name: name || 'pasted', bytes: toBytes(data), settings: settingsText(settings) }, onProgress),
+    inspect: (data, settings, name) =>
+      engineCall('inspect', { name: name || 'pasted', bytes: toBytes(data), settings: settingsText(settings) }),
+    exportReport: (format) => engineCall('export', { format: String(format) }),
+    plots: (index) => engineCall('plots', { index: Number(index) }),
+    bench: (n) => engineCall('bench', { n: Number(n) }).then((r) => r.ms),
+    about: () => engineCall('about', {}),
+    cancel: () => { if (engine) engine.cancel(); },
+  };
+  Object.freeze(api);
+  Object.defineProperty(window, 'rootshift', { value: api, enumerable: true });
+
+  // ---------- page state ----------
+
+  const state = { name: '', bytes: null, about: null, preview: null, running: false, lastDoc: null };
+
+  const status = (msg, isError) => {
+    const el = $('status');
+    el.textContent = msg;
+    el.classList.toggle('error', !!isError);
+  };
+
+  function el(tag, attrs, ...children) {
+    const e = document.createElement(tag);
+    if (attrs) {
+      for (const [k, v] of Object.entries(attrs)) {
+        if (v === undefined || v === null || v === false) continue;
+        if (k === 'class') e.className = v;
+        else if (k === 'text') e.textContent = v;
+        else e.setAttribute(k, v === true ? '' : v);
+      }
+    }
+    for (const c of children) {
+      if (c === null || c === undefined || c === false) continue;
+      e.append(c instanceof Node ? c : String(c));
+    }
+    return e;
+  }
+
+  const fmt = (x, d = 3) => (x === null || x === undefined || !isFinite(x)) ? '—' : Number(x).toFixed(d);
+  const fmtP = (x) => (x === null || x === undefined || !isFinite(x)) ? '—' : (x < 0.001 ? '<0.001' : Number(x).toFixed(3));
+
+  // ---------- data input ----------
+
+  function setData(name, bytes) {
+    state.name = name;
+    state.bytes = bytes;
+    refreshPreview();
+  }
+
+  async function readFile(file) {
+    const buf = await file.arrayBuffer();
+    $('demo-note').hidden = true;
+    setData(file.name, new Uint8Array(buf));
+  }
+
+  $('file').addEventListener('change', (e) => { if (e.target.files[0]) readFile(e.target.files[0]); });
+  const drop = $('drop');
+  drop.addEventListener('dragover', (e) => { e.preventDefault(); drop.classList.add('over'); });
+  drop.addEventListener('dragleave', () => drop.classList.remove('over'));
+  drop.addEventListener('drop', (e) => {
+    e.preventDefault();
+    drop.classList.remove('over');
+    const f = e.dataTransfer.files[0];
+    if (f) readFile(f);
+  });
+  $('use-paste').addEventListener('click', () => {
+    const text = $('paste').value;
+    if (!text.trim()) { status('Paste some cells first (header row first).', true); return; }
+    $('demo-note').hidden = true;
+    setData('pasted', new TextEncoder().encode(text));
+  });
+  $('use-demo').addEventListener('click', async () => {
+    try {
+      const d = await engineCall('demo', {});
+      $('demo-note').textContent = d.description;
+      $('demo-note').hidden = false;
+      setData(d.name, new TextEncoder().encode(d.text));
+    } catch (err) { status(err.message, true); }
+  });
+
+  // Settings that select the input (they change the preview).
+  const inputSettingIds = ['s-from', 's-to', 's-transform', 's-datecol'];
+  let previewTimer = 0;
+  for (const id of inputSettingIds) {
+    $(id).addEventListener('input', () => { clearTimeout(previewTimer); previewTimer = setTimeout(refreshPreview, 350); });
+  }
+
+  async function refreshPreview() {
+    if (!state.bytes) return;
+    let s;
+    try { s = readSettings(true); } catch (err) { status(err.message, true); return; }
+    const box = $('preview');
+    try {
+      const p = await engineCall('inspect', { name: state.name, bytes: state.bytes.slice(), settings: JSON.stringify(s) });
+      state.preview = p;
+      renderPreview(p);
+      $('run').disabled = false;
+      status('Ready: choose what to test, then press “Find out”.');
+    } catch (err) {
+      box.replaceChildren(el('p', { class: 'errors' }, 'Could not read the data: ' + err.message));
+      state.preview = null;
+      $('run').disabled = true;
+      status('The data could not be read.', true);
+    }
+  }
+
+  function renderPreview(p) {
+    const box = $('preview');
+    const prevChecked = new Map();
+    for (const cb of box.querySelectorAll('input[data-col]')) prevChecked.set(cb.dataset.col, cb.checked);
+    const facts = [
+      `${p.rows} rows`,
+      p.date_column ? `date column “${p.date_column}”` : 'no date column (observations are numbered)',
+      p.frequency ? `frequency: ${p.frequency}` : null,
+      p.first_date ? `${p.first_date} to ${p.last_date}` : null,
+      `${p.series.length} series`,
+    ].filter(Boolean);
+    const rows = p.series.map((c) => {
+      const checked = prevChecked.has(c.name) ? prevChecked.get(c.name) : true;
+      const sel = p.selected.find((x) => x.name === c.name);
+      let use = '—';
+      if (sel) use = sel.error ? sel.error : `${sel.n} obs.` + (sel.start ? ` ${sel.start} – ${sel.end}` : '');
+      return el('tr', null,
+        el('td', null, el('label', { class: 'choice' },
+          el('input', { type: 'checkbox', 'data-col': c.name, checked: checked ? true : null, 'aria-label': 'analyse ' + c.name }),
+          el('span', null, c.name))),
+        el('td', { class: 'num' }, c.n),
+        el('td', { class: 'num' }, c.missing),
+        el('td', { class: 'num' }, fmt(c.min, 2)),
+        el('td', { class: 'num' }, fmt(c.max, 2)),
+        el('td', { class: sel && sel.error ? 'errors' : '' }, use));
+    });
+    const table = el('div', { class: 'table-wrap' }, el('table', null,
+      el('caption', { class: 'sr-only' }, 'Series found in the data'),
+      el('thead', null, el('tr', null, ...['Series', 'Obs.', 'Missing', 'Min', 'Max', 'Used in the analysis'].map((h) => el('th', { scope: 'col' }, h)))),
+      el('tbody', null, ...rows)));
+    const parts = [el('h3', null, 'What was read', el('span', { class: 'tag' }, p.name)), el('p', { class: 'small' }, facts.join(' · ')), table];
+    if (p.select_error) parts.push(el('p', { class: 'errors' }, p.select_error));
+    if (p.warnings && p.warnings.length) parts.push(el('ul', { class: 'tight small muted' }, ...p.warnings.map((w) => el('li', null, w))));
+    box.replaceChildren(...parts);
+    if (p.first_date) {
+      $('s-from').placeholder = p.first_date;
+      $('s-to').placeholder = p.last_date;
+    }
+  }
+
+  // ---------- settings ----------
+
+  function num(id, integer, min, max) {
+    const v = $(id).value.trim();
+    if (v === '') return undefined;
+    const x = Number(v);
+    const label = document.querySelector(`label[for="${id}"]`);
+    const what = label ? label.firstChild.textContent.trim() : id;
+    if (!isFinite(x) || (integer && !Number.isInteger(x)) || (min !== undefined && x < min) || (max !== undefined && x > max)) {
+      throw new EngineError('usage', `${what}: “${v}” is not a valid value`);
+    }
+    return x;
+  }
+  const txt = (id) => $(id).value.trim() || undefined;
+
+  // readSettings returns the settings object with exactly the JSON names of
+  // the command-line tool's settings (schema v1); unset fields are omitted.
+  function readSettings(inputOnly) {
+    const s = {};
+    const put = (k, v) => { if (v !== undefined && v !== '' && v !== 0 && v !== false) s[k] = v; };
+    put('from', txt('s-from'));
+    put('to', txt('s-to'));
+    put('transform', $('s-transform').value);
+    put('date_column', txt('s-datecol'));
+    if (inputOnly) return s;
+    const cols = [...document.querySelectorAll('#preview input[data-col]')];
+    if (cols.length && cols.some((c) => !c.checked)) {
+      const picked = cols.filter((c) => c.checked).map((c) => c.dataset.col);
+      if (!picked.length) throw new EngineError('usage', 'Pick at least one series.');
+      s.columns = picked;
+    }
+    if ($('s-mode-pick').checked) {
+      const tests = [...document.querySelectorAll('#tests-grid input:checked')].map((c) => c.value);
+      if (!tests.length) throw new EngineError('usage', 'Pick at least one test, or use the recommended set.');
+      s.tests = tests;
+    }
+    put('trend', $('s-trend').value);
+    const lags = num('s-lags', true, 0, 1000);
+    if (lags !== undefined) s.lags = lags;
+    put('lag_rule', $('s-lagrule').value);
+    const maxLags = num('s-maxlags', true, 0, 1000);
+    if (maxLags !== undefined) s.max_lags = maxLags;
+    const bw = num('s-bandwidth', false, 0);
+    if (bw !== undefined) s.bandwidth = bw;
+    put('kernel', $('s-kernel').value);
+    put('bandwidth_rule', $('s-bwrule').value);
+    put('level', $('s-level').value ? Number($('s-level').value) : undefined);
+    put('shift', $('s-shift').value);
+    put('trim', num('s-trim', false, 0.01, 0.49));
+    put('break_date', txt('s-breakdate'));
+    const wf = txt('s-win-from'), wt = txt('s-win-to');
+    if (wf || wt) {
+      if (!wf || !wt) throw new EngineError('usage', 'Give both ends of the crisis window.');
+      s.window = wf + ':' + wt;
+    }
+    put('sims', num('s-sims', true, 0, 10000000));
+    put('seed', num('s-seed', true, 0));
+    put('right_tail', $('s-righttail').checked);
+    put('max_breaks', num('s-maxbreaks', true, 1, 10));
+    return s;
+  }
+
+  for (const r of document.querySelectorAll('input[name="s-mode"]')) {
+    r.addEventListener('change', () => { $('tests-grid').hidden = !$('s-mode-pick').checked; });
+  }
+
+  function renderTests(about) {
+    const grid = $('tests-grid');
+    grid.replaceChildren(...about.tests.map((t) => el('label', { class: 'choice', title: t.citation },
+      el('input', { type: 'checkbox', value: t.id, checked: t.verdict ? true : null }),
+      el('span', null, t.name, el('span', { class: 'tag' }, t.id)))));
+    $('battery-list').textContent = '(' + about.verdict_tests.join(', ') + ')';
+    $('caution').textContent = about.caution;
+  }
+
+  // ---------- running ----------
+
+  function progressText(p) {
+    if (p.stage === 'simulation' && p.total) return `Simulating p-values: ${p.test} on ${p.series}, ${Math.floor(100 * p.done / p.total)}%`;
+    if (p.stage === 'test') return `Running ${p.test} on ${p.series}…`;
+    if (p.stage === 'series' && p.total) return `${p.done} of ${p.total} series done`;
+    return 'Working…';
+  }
+
+  $('run').addEventListener('click', run);
+  $('cancel').addEventListener('click', () => {
+    if (engine) engine.cancel();
+    status('Cancelled. The engine was restarted; your data and settings are kept.');
+  });
+
+  async function run() {
+    if (!state.bytes || state.running) return;
+    let s;
+    try { s = readSettings(false); } catch (err) { status(err.message, true); return; }
+    state.running = true;
+    $('run').disabled = true;
+    $('cancel').hidden = false;
+    $('progress-box').hidden = false;
+    $('progress').removeAttribute('value');
+    $('progress-text').textContent = 'Working…';
+    status('Analysing…');
+    const started = performance.now();
+    try {
+      const doc = await engineCall('analyze', { name: state.name, bytes: state.bytes.slice(), settings: JSON.stringify(s) }, (p) => {
+        if (p.stage === 'simulation' && p.total) $('progress').value = Math.floor(100 * p.done / p.total);
+        else if (p.stage === 'series' && p.total) $('progress').value = Math.floor(100 * p.done / p.total);
+        $('progress-text').textContent = progressText(p);
+      });
+      state.lastDoc = doc;
+      await renderFindings(doc);
+      status(`Done in ${((performance.now() - started) / 1000).toFixed(1)} s.`);
+      $('findings-h').focus();
+    } catch (err) {
+      if (err.kind === 'cancelled') status('Cancelled. The engine was restarted; your data and settings are kept.');
+      else status((err.kind === 'usage' ? 'Settings: ' : '') + err.message, true);
+    } finally {
+      state.running = false;
+      $('run').disabled = !state.bytes;
+      $('cancel').hidden = true;
+      $('progress-box').hidden = true;
+    }
+  }
+
+  // ---------- findings ----------
+
+  const classWords = {
+    'stationary': 'Stationary',
+    'trend-stationary': 'Stationary around a trend',
+    'break-stationary': 'Stationary around a break',
+    'unit-root': 'Unit root',
+    'unit-root-breaks': 'Unit root, with breaks',
+    'explosive': 'Explosive episode',
+    'inconclusive': 'Inconclusive',
+  };
+  const transformWords = {
+    'none': 'use it as it is',
+    'detrend': 'remove a trend',
+    'shift-dummies': 'model the breaks with shift dummies',
+    'difference': 'take first differences',
+    'log-difference': 'take differences of logarithms',
+  };
+
+  function testName(id) {
+    const t = state.about && state.about.tests.find((x) => x.id === id);
+    return t ? t.name : id;
+  }
+
+  function breaksText(bs) {
+    if (!bs || !bs.length) return '—';
+    return bs.map((b) => (b.date || ('obs. ' + b.index)) + (b.lower ? ` [${b.lower_date || b.lower}–${b.upper_date || b.upper}]` : '')).join(', ');
+  }
+
+  function decisionText(r) {
+    const lv = r.level ? Math.round(r.level * 100) + '%' : '';
+    return (r.reject ? 'rejects H0' : 'does not reject H0') + ' at ' + lv;
+  }
+
+  function resultRows(r) {
+    const cv = r.critical_values || {};
+    const rows = [el('tr', null,
+      el('th', { scope: 'row' }, testName(r.test), el('span', { class: 'tag' }, r.test + (r.variant ? ' ' + r.variant : '')), el('span', { class: 'h0' }, 'H0: ' + r.null)),
+      el('td', { class: 'num' }, fmt(r.statistic)),
+      el('td', { class: 'num', title: r.p_value_method }, fmtP(r.p_value) + (r.p_value_sim !== undefined && r.p_value_sim !== null ? ` (sim. ${fmtP(r.p_value_sim)})` : '')),
+      el('td', { class: 'num' }, fmt(cv['0.01'])),
+      el('td', { class: 'num' }, fmt(cv['0.05'])),
+      el('td', { class: 'num' }, fmt(cv['0.10'])),
+      el('td', { class: 'num' }, r.lags + (r.lag_rule ? ' ' + r.lag_rule : '')),
+      el('td', null, breaksText(r.breaks)),
+      el('td', { class: 'decision' }, decisionText(r)))];
+    for (const c of [...(r.components || []), ...(r.break_tests || [])]) {
+      const ccv = c.critical_values || {};
+      rows.push(el('tr', { class: 'small' },
+        el('td', null, '↳ ' + c.name),
+        el('td', { class: 'num' }, fmt(c.statistic)),
+        el('td', { class: 'num' }, fmtP(c.p_value)),
+        el('td', { class: 'num' }, fmt(ccv['0.01'])),
+        el('td', { class: 'num' }, fmt(ccv['0.05'])),
+        el('td', { class: 'num' }, fmt(ccv['0.10'])),
+        el('td', null, ''), el('td', null, ''),
+        el('td', { class: 'decision' }, c.reject ? 'rejects' : 'does not reject')));
+    }
+    return rows;
+  }
+
+  async function renderFindings(doc) {
+    $('findings-h').hidden = false;
+    $('findings-h').tabIndex = -1;
+    $('exports').hidden = false;
+    const out = $('results');
+    out.replaceChildren();
+    for (let i = 0; i < doc.series.length; i++) {
+      const sr = doc.series[i];
+      const card = el('article', { class: 'card', 'aria-labelledby': 'series-h-' + i, 'data-series': sr.name });
+      const meta = [`${sr.n} observations`, sr.start ? `${sr.start} – ${sr.end}` : null, sr.frequency, sr.transform ? `transform: ${sr.transform}` : null].filter(Boolean).join(' · ');
+      card.append(el('h3', { id: 'series-h-' + i }, sr.name), el('p', { class: 'small muted' }, meta));
+      const v = sr.verdict;
+      if (v) {
+        const box = el('div', { class: 'verdict v-' + v.class, 'data-verdict': v.class },
+          el('div', { class: 'class' }, classWords[v.class] || v.class,
+            v.order !== null && v.order !== undefined ? el('span', { class: 'tag' }, 'I(' + v.order + ')') : null,
+            v.drift ? el('span', { class: 'tag' }, 'with drift') : null),
+          el('p', null, v.explanation),
+          el('p', { class: 'small' }, el('strong', null, 'What to do: '), transformWords[v.transform] || v.transform,
+            v.breaks && v.breaks.length ? '. Breaks: ' + breaksText(v.breaks) : ''));
+        if (v.window) {
+          box.append(el('p', { class: 'small' }, `Suspected window ${v.window.from} – ${v.window.to}: ` +
+            (v.window.break_inside ? 'a break found falls inside it.' : 'no break found falls inside it.')));
+        }
+        if (v.supporting && v.supporting.length) box.append(el('p', { class: 'small' }, el('strong', null, 'Evidence for: ')), el('ul', { class: 'tight small' }, ...v.supporting.map((x) => el('li', null, x))));
+        if (v.against && v.against.length) box.append(el('p', { class: 'small' }, el('strong', null, 'Evidence against: ')), el('ul', { class: 'tight small' }, ...v.against.map((x) => el('li', null, x))));
+        card.append(box);
+      }
+      if (sr.errors && sr.errors.length) {
+        card.append(el('ul', { class: 'tight errors small' }, ...sr.errors.map((e) => el('li', null, (e.test ? e.test + ': ' : '') + e.message))));
+      }
+      if (sr.warnings && sr.warnings.length) {
+        card.append(el('ul', { class: 'tight small muted' }, ...sr.warnings.map((w) => el('li', null, w))));
+      }
+      if (sr.results.length) {
+        card.append(el('div', { class: 'table-wrap' }, el('table', { class: 'results' },
+          el('caption', { class: 'sr-only' }, 'Test results for ' + sr.name),
+          el('thead', null, el('tr', null, ...['Test', 'Statistic', 'p-value', '1%', '5%', '10%', 'Lags', 'Break dates', 'Decision'].map((h) => el('th', { scope: 'col' }, h)))),
+          el('tbody', null, ...sr.results.flatMap(resultRows)))));
+      }
+      const figs = el('div', { class: 'plots' });
+      card.append(figs);
+      out.append(card);
+    }
+    // Plots are drawn by the engine (report.SeriesSVG, PathSVG, ACFSVG) after the text is shown.
+    const cards = out.querySelectorAll('article');
+    for (let i = 0; i < cards.length; i++) {
+      try {
+        const plots = await engineCall('plots', { index: i });
+        const figs = cards[i].querySelector('.plots');
+        for (const p of plots) {
+          const f = el('figure', null);
+          const holder = el('div', null);
+          // The SVG text is produced by our own Go code, which escapes every label.
+          holder.innerHTML = p.svg;
+          f.append(holder, el('figcaption', null, p.title));
+          figs.append(f);
+        }
+      } catch (err) {
+        if (err.kind === 'cancelled') return;
+      }
+    }
+  }
+
+  async function download(format) {
+    try {
+      const x = await engineCall('export', { format });
+      const url = URL.createObjectURL(new Blob([x.text], { type: x.mime + ';charset=utf-8' }));
+      const a = el('a', { href: url, download: x.file_name });
+      document.body.append(a);
+      a.click();
+      a.remove();
+      setTimeout(() => URL.revokeObjectURL(url), 10000);
+      status(`Saved ${x.file_name}.`);
+    } catch (err) { status(err.message, true); }
+  }
+  for (const b of document.querySelectorAll('[data-export]')) {
+    b.addEventListener('click', () => download(b.dataset.export));
+  }
+
+  // ---------- start ----------
+
+  api.ready.then(async () => {
+    try {
+      state.about = await engineCall('about', {});
+      renderTests(state.about);
+    } catch (err) { /* the test list is optional */ }
+    status(state.bytes ? 'Ready.' : 'Ready. Start with your data, or try the demo data.');
+    $('run').disabled = !state.bytes;
+    document.documentElement.dataset.ready = 'true';
+  }, (err) => status('The engine could not start: ' + err.message, true));
+})();

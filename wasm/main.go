@@ -1,0 +1,198 @@
+//go:build js && wasm
+
+// Command wasm is the engine of the offline page: the same analysis as the
+// command-line tool (battery.AnalyzeText with schema.Settings), compiled to
+// WebAssembly and run inside a Web Worker.
+//
+// It is thin glue written with github.com/hack-pad/safejs: it copies the
+// arguments out of JavaScript, calls package bridge (which decodes settings,
+// runs the analysis and encodes every result as a JSON envelope) and hands
+// the JSON text back. Every export recovers panics into an error envelope,
+// because a panic or an unconvertible value at the boundary would end the Go
+// program. The exports live on globalThis.rootshiftEngine:
+//
+//	analyze(name, bytes, settingsJSON, onProgress) -> JSON envelope (schema v1 document)
+//	inspect(name, bytes, settingsJSON)             -> JSON envelope (preview)
+//	export(format)                                 -> JSON envelope (report text)
+//	plots(seriesIndex)                             -> JSON envelope (SVG drawings)
+//	bench(n)                                       -> JSON envelope (milliseconds)
+//	about()                                        -> JSON envelope (version, tests)
+//	demo()                                         -> JSON envelope (demo CSV)
+//
+// When the exports are in place it calls globalThis.rootshiftReady() if that
+// exists, then blocks forever.
+package main
+
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+	"time"
+
+	"github.com/hack-pad/safejs"
+	"github.com/rootshift/rootshift/breaks/battery"
+	"github.com/rootshift/rootshift/wasm/bridge"
+)
+
+// handler is one export: it receives the call's arguments and returns a JSON envelope.
+type handler func(args []safejs.Value) (string, error)
+
+// guard wraps h so that argument errors and panics become error envelopes.
+func guard(h handler) func(this safejs.Value, args []safejs.Value) any {
+	return func(_ safejs.Value, args []safejs.Value) (out any) {
+		defer func() {
+			if p := recover(); p != nil {
+				out = bridge.Call(func() (any, error) { panic(p) })
+			}
+		}()
+		s, err := h(args)
+		if err != nil {
+			return bridge.Call(func() (any, error) { return nil, bridge.ArgError(err) })
+		}
+		return s
+	}
+}
+
+func argString(args []safejs.Value, i int) (string, error) {
+	if i >= len(args) || args[i].IsUndefined() || args[i].IsNull() {
+		return "", nil
+	}
+	return args[i].String()
+}
+
+func argInt(args []safejs.Value, i int) (int, error) {
+	if i >= len(args) {
+		return 0, fmt.Errorf("argument %d is missing", i+1)
+	}
+	return args[i].Int()
+}
+
+// argBytes copies a Uint8Array argument into Go.
+func argBytes(args []safejs.Value, i int) ([]byte, error) {
+	if i >= len(args) || args[i].IsUndefined() || args[i].IsNull() {
+		return nil, nil
+	}
+	n, err := args[i].Length()
+	if err != nil {
+		return nil, err
+	}
+	b := make([]byte, n)
+	if _, err := safejs.CopyBytesToGo(b, args[i]); err != nil {
+		return nil, fmt.Errorf("argument %d must be a Uint8Array: %v", i+1, err)
+	}
+	return b, nil
+}
+
+// progressTo returns a progress callback that forwards at most one update
+// per 100 ms (and every change of stage or test) as JSON text to fn.
+func progressTo(fn safejs.Value) func(battery.Progress) {
+	if fn.Type() != safejs.TypeFunction {
+		return nil
+	}
+	var last time.Time
+	var lastKey string
+	return func(p battery.Progress) {
+		key := p.Stage + "\x00" + p.Series + "\x00" + p.Test
+		now := time.Now()
+		if key == lastKey && now.Sub(last) < 100*time.Millisecond && p.Done != p.Total {
+			return
+		}
+		last, lastKey = now, key
+		b, err := json.Marshal(map[string]any{"stage": p.Stage, "series": p.Series, "test": p.Test, "done": p.Done, "total": p.Total})
+		if err != nil {
+			return
+		}
+		_, _ = fn.Invoke(string(b)) // progress is best effort
+	}
+}
+
+func main() {
+	session := bridge.NewSession()
+	exports := map[string]handler{
+		"analyze": func(args []safejs.Value) (string, error) {
+			name, err := argString(args, 0)
+			if err != nil {
+				return "", err
+			}
+			data, err := argBytes(args, 1)
+			if err != nil {
+				return "", err
+			}
+			settings, err := argString(args, 2)
+			if err != nil {
+				return "", err
+			}
+			var progress func(battery.Progress)
+			if len(args) > 3 {
+				progress = progressTo(args[3])
+			}
+			return session.Analyze(context.Background(), name, data, settings, progress), nil
+		},
+		"inspect": func(args []safejs.Value) (string, error) {
+			name, err := argString(args, 0)
+			if err != nil {
+				return "", err
+			}
+			data, err := argBytes(args, 1)
+			if err != nil {
+				return "", err
+			}
+			settings, err := argString(args, 2)
+			if err != nil {
+				return "", err
+			}
+			return bridge.Inspect(name, data, settings), nil
+		},
+		"export": func(args []safejs.Value) (string, error) {
+			f, err := argString(args, 0)
+			if err != nil {
+				return "", err
+			}
+			return session.Export(f), nil
+		},
+		"plots": func(args []safejs.Value) (string, error) {
+			i, err := argInt(args, 0)
+			if err != nil {
+				return "", err
+			}
+			return session.Plots(i), nil
+		},
+		"bench": func(args []safejs.Value) (string, error) {
+			n, err := argInt(args, 0)
+			if err != nil {
+				return "", err
+			}
+			return bridge.Bench(n), nil
+		},
+		"about": func([]safejs.Value) (string, error) { return bridge.AboutInfo(), nil },
+		"demo":  func([]safejs.Value) (string, error) { return bridge.Demo(), nil },
+	}
+	global := safejs.Global()
+	obj, err := global.Get("Object")
+	if err != nil {
+		panic(err)
+	}
+	engine, err := obj.New()
+	if err != nil {
+		panic(err)
+	}
+	for name, h := range exports {
+		fn, err := safejs.FuncOf(guard(h))
+		if err != nil {
+			panic(err)
+		}
+		if err := engine.Set(name, fn.Value()); err != nil {
+			panic(err)
+		}
+	}
+	if err := engine.Set("version", battery.Version); err != nil {
+		panic(err)
+	}
+	if err := global.Set("rootshiftEngine", engine); err != nil {
+		panic(err)
+	}
+	if ready, err := global.Get("rootshiftReady"); err == nil && ready.Type() == safejs.TypeFunction {
+		_, _ = ready.Invoke()
+	}
+	select {}
+}
