@@ -695,7 +695,9 @@ func TestExplosiveTableVsSimulation(t *testing.T) {
 			explTableSeq(full, T, null.MinWindow, 0.05, crit)
 			for _, e := range []int{null.MinWindow, null.MinWindow + 5, (null.MinWindow + T) / 2, T} {
 				got, want := crit[e-null.MinWindow], null.SeqQuantile(full, e, 0.95)
-				if math.Abs(got-want) > 0.15 {
+				// 0.15 at 1,000 replications, widened with the Monte Carlo
+				// error when fewer are drawn (-short).
+				if math.Abs(got-want) > 0.15*math.Sqrt(1000/float64(reps)) {
 					t.Errorf("T=%d %s sequence at e=%d: table %.3f simulation %.3f", T, name, e, got, want)
 				}
 			}
