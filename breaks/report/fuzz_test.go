@@ -175,7 +175,7 @@ func FuzzWrite(f *testing.F) {
 			}
 		}
 		for i := range inputs {
-			for _, svg := range []string{SeriesSVG(inputs[i], plotBreaks(&doc.Series[i]), nil), ACFSVG(inputs[i], int(seed%50))} {
+			for _, svg := range []string{SeriesSVG(inputs[i], PlotBreaks(&doc.Series[i]), nil), ACFSVG(inputs[i], int(seed%50))} {
 				if err := xmlWellFormed(svg); err != nil {
 					t.Fatalf("svg: %v", err)
 				}

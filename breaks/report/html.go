@@ -238,7 +238,7 @@ func htmlPlots(e *errWriter, s *schema.Series, in *dataset.Series) {
 	var figs []string
 	var caps []string
 	if in != nil {
-		breaks := plotBreaks(s)
+		breaks := PlotBreaks(s)
 		var episodes []schema.Episode
 		for i := range s.Results {
 			episodes = append(episodes, s.Results[i].Episodes...)
@@ -264,14 +264,16 @@ func htmlPlots(e *errWriter, s *schema.Series, in *dataset.Series) {
 	}
 }
 
-// plotBreaks are the breaks drawn on the series plot: the verdict's, else
-// those of the first result that has any.
-func plotBreaks(s *schema.Series) []schema.Break {
-	if s.Verdict != nil && len(s.Verdict.Breaks) > 0 {
+// PlotBreaks are the breaks drawn on a series plot: with a verdict, the
+// verdict's (possibly none: a break a test only searched for, without
+// finding it significant, is not drawn as if it were real); without one,
+// those of the first result that rejects and dates breaks.
+func PlotBreaks(s *schema.Series) []schema.Break {
+	if s.Verdict != nil {
 		return s.Verdict.Breaks
 	}
 	for i := range s.Results {
-		if len(s.Results[i].Breaks) > 0 {
+		if s.Results[i].Reject && len(s.Results[i].Breaks) > 0 {
 			return s.Results[i].Breaks
 		}
 	}

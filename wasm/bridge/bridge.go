@@ -307,7 +307,7 @@ func (s *Session) Plots(i int) string {
 				episodes = append(episodes, r.Episodes...)
 			}
 			plots = append(plots,
-				Plot{Kind: "series", Title: "The series", SVG: inline(report.SeriesSVG(in, plotBreaks(sr), episodes))},
+				Plot{Kind: "series", Title: "The series", SVG: inline(report.SeriesSVG(in, report.PlotBreaks(sr), episodes))},
 				Plot{Kind: "acf", Title: "Autocorrelations", SVG: inline(report.ACFSVG(in, 0))})
 		}
 		for _, r := range sr.Results {
@@ -317,20 +317,6 @@ func (s *Session) Plots(i int) string {
 		}
 		return plots, nil
 	})
-}
-
-// plotBreaks picks the breaks to draw on the series: the verdict's, else the
-// first result that has some (the same choice as the HTML report).
-func plotBreaks(s *schema.Series) []schema.Break {
-	if s.Verdict != nil && len(s.Verdict.Breaks) > 0 {
-		return s.Verdict.Breaks
-	}
-	for i := range s.Results {
-		if len(s.Results[i].Breaks) > 0 {
-			return s.Results[i].Breaks
-		}
-	}
-	return nil
 }
 
 // inline drops the SVG namespace declaration, which inline SVG in HTML does
