@@ -134,8 +134,9 @@ func (r *runner) verdict() error {
 	// boom-and-bust in linear growth) in the window where the ADF sequence
 	// peaks makes it reject too. So an explosive verdict also needs the
 	// right-tailed ADF with a linear trend — whose null distribution does not
-	// depend on a drift — to reject on the sample up to that peak; that
-	// result is reported beside SADF.
+	// depend on a drift — to reject on the sample up to that peak, and, when
+	// the whole series has a significant drift, on the whole sample too;
+	// those results are reported beside SADF.
 	if has(set, "sadf") {
 		base, variant := r.y, ""
 		if positiveSeries(r.y) && r.s.Transform == "" {
@@ -154,15 +155,25 @@ func (r *runner) verdict() error {
 			last.Variant = variant
 			ev.sadf = last
 			if res.Reject {
-				end := peakEnd(res, len(base))
-				res2, err := r.runWith("adf", core.TrendLinear, base[:end], func(c *core.Config) { c.RightTail = true })
-				if err != nil {
-					return err
+				// Drift checks: on the sample up to the peak of the ADF
+				// sequence and, when the whole series drifts, on all of it.
+				ends := []int{peakEnd(res, len(base))}
+				if drift(base) && ends[0] != len(base) {
+					ends = append(ends, len(base))
 				}
-				if res2 != nil {
+				for _, end := range ends {
+					res2, err := r.runWith("adf", core.TrendLinear, base[:end], func(c *core.Config) { c.RightTail = true })
+					if err != nil {
+						return err
+					}
+					if res2 == nil {
+						continue
+					}
 					last := &r.series.Results[len(r.series.Results)-1]
 					last.Variant = strings.TrimPrefix(fmt.Sprintf("%s, right-tailed with trend, observations 1-%d", variant, end), ", ")
-					ev.driftCheck = last
+					if ev.driftCheck == nil || !last.Reject {
+						ev.driftCheck = last
+					}
 				}
 			}
 		}
@@ -208,6 +219,7 @@ func (r *runner) verdict() error {
 	v.Tests = set
 	if r.s.Window != "" {
 		v.Window = r.windowCheck(v.Breaks, &ev)
+		v.Explanation += " " + windowText(v.Window)
 	}
 	r.series.Verdict = v
 	return nil
@@ -725,6 +737,28 @@ func (r *runner) windowCheck(vb []schema.Break, ev *evidence) *schema.WindowChec
 		r.series.Results = r.series.Results[:n]
 	}
 	return w
+}
+
+// windowText says in words what the window check found.
+func windowText(w *schema.WindowCheck) string {
+	s := fmt.Sprintf("Suspected window %s to %s: ", w.From, w.To)
+	if w.BreakInside {
+		s += "a break estimated by the tests falls inside it."
+	} else {
+		s += "no break estimated by the tests falls inside it."
+	}
+	if k := w.Known; k != nil && k.Statistic != nil && len(k.Breaks) > 0 {
+		when := k.Breaks[0].Date
+		if when == "" {
+			when = fmt.Sprintf("observation %d", k.Breaks[0].Index)
+		}
+		dec := "does not reject"
+		if k.Reject {
+			dec = "rejects"
+		}
+		s += fmt.Sprintf(" Perron's (1989) known-break test with the break at %s, the best-fitting date in the window, %s a unit root (t = %.2f).", when, dec, *k.Statistic)
+	}
+	return s
 }
 
 // bestBreakIn returns the TB in [lo, hi] minimising the SSR of y on
