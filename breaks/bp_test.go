@@ -701,3 +701,134 @@ func TestBPTrendBreak(t *testing.T) {
 		t.Errorf("trend break found in %d of %d draws", near, draws)
 	}
 }
+
+// bpTrendDraw is y_t = 0.05 t + u_t, u_t AR(1) with coefficient phi and
+// N(0,1) innovations, plus (brk > 0) a shift of 1 in the level and 0.05 in
+// the slope after observation brk.
+func bpTrendDraw(T int, phi float64, brk int, seed, d uint64) []float64 {
+	r := rand.New(rand.NewPCG(seed, d))
+	y := make([]float64, T)
+	u := 0.0
+	for i := range y {
+		u = phi*u + r.NormFloat64()
+		y[i] = 0.05*float64(i+1) + u
+		if brk > 0 && i+1 > brk {
+			y[i] += 1 + 0.05*float64(i+1-brk)
+		}
+	}
+	return y
+}
+
+// TestBPTrendSize: the trend model (q = 2, default settings, 5% level,
+// T = 200, 400 draws) keeps its size: UDmax, WDmax and supF(2|1) (the last
+// under one true break, its null) reject in at most the share given, and
+// UDmax at least lo with i.i.d. errors; a break of 1 sd in the level and
+// 0.05 in the slope at T/2 is detected by UDmax in most draws (common
+// practice: bounds set for this check, no source). With the former
+// segment-by-segment 2×2 kernel covariance and the asymptotic table UDmax
+// rejected about 16% (i.i.d.) and 21% (AR(1) 0.5) of such null draws,
+// WDmax 29% and 39%.
+func TestBPTrendSize(t *testing.T) {
+	const T, draws = 200, 400
+	cases := []struct {
+		name   string
+		phi    float64
+		brk    int
+		comp   string  // BreakTests component
+		lo, hi float64 // bounds on the rejection share
+	}{
+		{"iid UDmax", 0, 0, "UDmax", 0.03, 0.08},
+		{"iid WDmax", 0, 0, "WDmax", 0, 0.08},
+		{"iid supF(2|1), one break", 0, T / 2, "supF(2|1)", 0, 0.08},
+		{"AR(1) 0.5 UDmax", 0.5, 0, "UDmax", 0, 0.10},
+		{"AR(1) 0.5 WDmax", 0.5, 0, "WDmax", 0, 0.10},
+		{"AR(1) 0.5 supF(2|1), one break", 0.5, T / 2, "supF(2|1)", 0, 0.10},
+		{"iid power UDmax", 0, T / 2, "UDmax", 0.8, 1},
+		{"AR(1) 0.5 power UDmax", 0.5, T / 2, "UDmax", 0.8, 1},
+	}
+	cfg := &core.Config{Trend: core.TrendLinear}
+	for _, c := range cases {
+		rej := 0
+		for d := 0; d < draws; d++ {
+			res, err := RunBP(context.Background(), bpTrendDraw(T, c.phi, c.brk, 4242, uint64(d)), cfg)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, b := range res.BreakTests {
+				if b.Name == c.comp && b.Reject {
+					rej++
+				}
+			}
+		}
+		share := float64(rej) / draws
+		t.Logf("%s: rejects %d of %d (%.3f)", c.name, rej, draws, share)
+		if share < c.lo || share > c.hi {
+			t.Errorf("%s: rejection share %.3f outside [%g, %g]", c.name, share, c.lo, c.hi)
+		}
+	}
+}
+
+// TestBPFiniteTable: the finite-sample table of the trend model at T=200,
+// ε=0.15 is reproduced by BPSimulateFinite with another seed within 4
+// standard errors of each quantile plus 0.2 (our simulation), and the
+// interpolation in 1/T returns the grid tables at their own T and values
+// between them elsewhere.
+func TestBPFiniteTable(t *testing.T) {
+	grid := bpFiniteTables[bpKey{2, 15}]
+	var tab *bpTable
+	for _, g := range grid {
+		if g.T == 200 {
+			tab = g
+		}
+	}
+	if tab == nil {
+		t.Fatal("no finite-sample table for T=200, trim 0.15")
+	}
+	draws, err := BPSimulateFinite(context.Background(), BPLimitSpec{Trend: core.TrendLinear, Trim: 0.15, M: 5, T: 200, Reps: 1500, Seed: 77}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for k := 0; k < 5; k++ {
+		var d core.Distribution
+		for _, r := range draws {
+			d.Sorted = append(d.Sorted, r[k])
+		}
+		slices.Sort(d.Sorted)
+		for _, i := range []int{2, 3} {
+			a := bpLevels[i]
+			got := d.Quantile(1 - a)
+			if tol := 4*d.QuantileSE(1-a) + 0.2; math.Abs(got-tab.SupF[k][i]) > tol {
+				t.Errorf("supF(%d) at %g: re-simulated %.3f, table %.3f (tol %.3f)", k+1, a, got, tab.SupF[k][i], tol)
+			}
+		}
+	}
+	asy := bpTableFor(2, 0.15)
+	at := func(T int) *bpTable {
+		tb, desc, _ := bpFiniteAt(0.15, T, asy)
+		if desc == "" {
+			t.Fatalf("T=%d: no finite-sample table", T)
+		}
+		return tb
+	}
+	if got := at(200).UDmax; got != tab.UDmax {
+		t.Errorf("T=200: UDmax %v, table %v", got, tab.UDmax)
+	}
+	lo, hi := at(150).UDmax[2], at(200).UDmax[2]
+	if mid := at(175).UDmax[2]; mid < math.Min(lo, hi) || mid > math.Max(lo, hi) {
+		t.Errorf("T=175: UDmax %.3f not between %.3f and %.3f", mid, lo, hi)
+	}
+	big, last := at(5000).UDmax[2], grid[len(grid)-1].UDmax[2]
+	if big < math.Min(last, asy.UDmax[2]) || big > math.Max(last, asy.UDmax[2]) {
+		t.Errorf("T=5000: UDmax %.3f not between %.3f and %.3f", big, last, asy.UDmax[2])
+	}
+	// Sequential values never fall below the asymptotic ones.
+	for _, T := range []int{60, 200, 700} {
+		for l, row := range at(T).Seq {
+			for i := range row {
+				if row[i] < asy.Seq[l][i] {
+					t.Errorf("T=%d supF(%d|%d): %.3f below the asymptotic %.3f", T, l+2, l+1, row[i], asy.Seq[l][i])
+				}
+			}
+		}
+	}
+}

@@ -9,7 +9,12 @@
 //	Model III (core.ShiftBoth):  x_t = (1, t, DU_t, DT_t)
 //
 // DU_t = 1(t > TB), DT_t = (t - TB) 1(t > TB); H0: the break coefficients are 0.
-// For every candidate TB (trimmed as in Candidates):
+//
+//  0. (Ours, not in the paper.) Steps 1-3 on the regression without break,
+//     x_t = (1, t) (p = 2). When they give α̂_MS = 1, the threshold of step 3
+//     becomes δ_T = c T^{-1/2} with c = pyC = 4 at every candidate date.
+//
+// Then for every candidate TB (trimmed as in Candidates):
 //
 //  1. OLS of y on x_t gives residuals û_t; the autoregression
 //     û_t = α û_{t-1} + Σ_{i=1..k} ζ_i Δû_{t-i} + e_t (Perron & Yabu 2009,
@@ -27,8 +32,11 @@
 //     c_r = 10 and I_p = 1 are our recollection of the published choices and
 //     are not confirmed; they only shape the finite-sample correction, not
 //     the limit, and our critical values are simulated with the same values.
+//     Also from memory: p counts every regressor of x_t (3 or 4 here), and
+//     the equation numbers of both papers cited in this comment.
 //  3. The super-efficient estimate (Perron & Yabu 2009, eq. 8):
-//     α̂_MS = 1 if |α̂_M - 1| ≤ T^{-1/2}, else α̂_M (α̂_M is capped at 1).
+//     α̂_MS = 1 if |α̂_M - 1| ≤ δ_T, else α̂_M (α̂_M is capped at 1), with
+//     δ_T = T^{-1/2} as in the paper, except after step 0 below.
 //  4. Feasible quasi-GLS: y^α = (y_1, y_2 - α̂_MS y_1, ..., y_T - α̂_MS y_{T-1})
 //     and the same transform of each column of x_t; OLS of y^α on x^α.
 //  5. W(TB) = γ̂'[R(X^α'X^α)^{-1}R']^{-1}γ̂ / ĥ_v (Perron & Yabu 2009,
@@ -47,19 +55,38 @@
 // The data are standardised first (core.Standardize) and the trend enters as
 // t/T; every step is invariant to both. The reference values of Perron &
 // Yabu's Table 2 were not available: critical values are our own simulation
-// at T=500 under i.i.d. N(0,1) (I(0)) and Gaussian random-walk (I(1)) noise,
-// taking at each level the larger of the two (py_tables_gen.go). The
-// p-value is not computed (nil).
+// under i.i.d. N(0,1) (I(0)) and Gaussian random-walk (I(1)) noise (see
+// below). The p-value is not computed (nil).
 //
-// Finding of that simulation: under I(1) noise the Exp-W distribution of
-// Models II and III has a much heavier upper tail than under I(0) (5% values
-// 10.0 and 33.0 against 1.5 and 3.1 at T=500). At the dates where a random
-// walk looks most trend-stationary, α̂_M can stay farther than T^{-1/2} from 1,
-// and the quasi-GLS regression then finds a spurious trend break. Perron &
-// Yabu report that the two limits nearly coincide; the gap here is a
-// finite-sample one, possibly widened by the from-memory Roy-Fuller constants.
-// Taking the larger quantile keeps the size under both kinds of noise, at a
-// cost in power when the noise is I(0).
+// Why step 0. Perron & Yabu show that with α̂_MS the limit of Exp-W is
+// (nearly) the same under I(0) and I(1) noise: under I(1), T(α̂_M - 1) =
+// O_p(1), so α̂_MS = 1 with probability tending to 1. In finite samples that
+// fails at the dates where a spurious break makes a random walk look
+// trend-stationary: at T = 200 the detrended autoregression there gives
+// T(α̂_M - 1) between -14 and -52, beyond the threshold √T = 14.1, and the
+// quasi-GLS regression with α̂_MS near 0.9 finds a large W (every Exp-W
+// above 5 in 300 random-walk draws came from such a date). The 5% value of
+// Exp-W under I(1) was then 20.8 (Model II) and 33.4 (Model III) at T = 200,
+// against 1.9 and 3.9 under I(0); with α̂_MS = 1 imposed under I(1) it is
+// 1.95 and 3.7, so the paper's claim holds once the super-efficient step
+// works. The Roy-Fuller constants are not the cause: at τ ≈ -5 every
+// version of C(τ) moves α̂ towards 1 by only about (p+1)/τ² of α̂ - 1.
+// Step 0 uses the no-break regression, where a random walk gives
+// T(α̂_M - 1) within √T most of the time, as evidence of a unit root, and
+// then asks for stronger evidence (c√T) before leaving α = 1 at a date. It
+// keeps the paper's limits: under I(1) every date still gets α̂_MS = 1 with
+// probability tending to 1 (c T^{-1/2} ≫ T^{-1}); under I(0) without break
+// step 0 gives α̂_MS < 1 with probability tending to 1 and the paper's
+// threshold applies; under I(0) with a break, the date near the true one
+// has α̂_M - 1 → α - 1 < 0 (beyond any c T^{-1/2}). A simpler rule (α from
+// the no-break regression at every date) lost most of the power of
+// Model II against slope changes under I(0) noise: the differenced
+// regression is weak. c = 4 was chosen by simulation at T = 200 (c = 3
+// left a heavier I(1) tail for Model III). The I(0) and I(1) quantiles are
+// close for T ≥ 200 (5% values at T = 500: Model I 1.92 / 1.71, II 1.55 /
+// 1.71, III 3.05 / 3.34); at T ≤ 100 the I(1) upper tail is still heavier.
+// Decisions use the larger of the two quantiles at each level, simulated at
+// T = 50, 100, 200, 500 and interpolated in 1/T (py_tables_gen.go).
 //
 // References: Perron, P. & Yabu, T. (2009), "Testing for shifts in trend with
 // an integrated or stationary noise component", JBES 27(3), 369-396.
@@ -76,6 +103,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"runtime"
+	"strings"
 	"sync"
 	"sync/atomic"
 
@@ -109,9 +137,14 @@ func init() {
 	})
 }
 
-// pyTable holds simulated critical values of Exp-W for one model and
-// trimming at the levels bpLevels: under I(0) noise, under I(1) noise, and
-// the larger of the two (used for decisions).
+// pyC scales the super-efficient threshold when the regression without
+// break already gives α̂_MS = 1 (step 0 in the file comment): ours, chosen by
+// simulation at T = 200.
+const pyC = 4.0
+
+// pyTable holds simulated critical values of Exp-W for one model, trimming
+// and sample size T at the levels bpLevels: under I(0) noise, under I(1)
+// noise, and the larger of the two (used for decisions).
 type pyTable struct {
 	T, Reps int
 	Seed    uint64
@@ -125,12 +158,43 @@ type pyKey struct {
 	trimPct int
 }
 
-func pyTableFor(s core.Shift, trim float64) *pyTable {
+// pyTableFor returns the critical values for model s, trimming trim and
+// sample size T: linear interpolation in 1/T between the simulated sample
+// sizes that bracket T, the nearest one outside their range (warn is then
+// non-empty for T below the smallest). nil when the trimming has no table.
+func pyTableFor(s core.Shift, trim float64, T int) (tab *pyTable, warn string) {
 	pct := int(math.Round(trim * 100))
 	if math.Abs(trim*100-float64(pct)) > 1e-9 {
-		return nil
+		return nil, ""
 	}
-	return pyTables[pyKey{s, pct}]
+	grid := pyTables[pyKey{s, pct}]
+	if len(grid) == 0 {
+		return nil, ""
+	}
+	if T <= grid[0].T {
+		if T < grid[0].T {
+			warn = fmt.Sprintf("critical values simulated for T >= %d; those of T=%d are used for T=%d", grid[0].T, grid[0].T, T)
+		}
+		return grid[0], warn
+	}
+	for i := 0; i+1 < len(grid); i++ {
+		lo, hi := grid[i], grid[i+1]
+		if T > hi.T {
+			continue
+		}
+		if T == hi.T {
+			return hi, ""
+		}
+		lam := (1/float64(T) - 1/float64(hi.T)) / (1/float64(lo.T) - 1/float64(hi.T))
+		out := &pyTable{T: T, Reps: lo.Reps, Seed: lo.Seed}
+		for l := range out.Max {
+			out.I0[l] = lam*lo.I0[l] + (1-lam)*hi.I0[l]
+			out.I1[l] = lam*lo.I1[l] + (1-lam)*hi.I1[l]
+			out.Max[l] = lam*lo.Max[l] + (1-lam)*hi.Max[l]
+		}
+		return out, ""
+	}
+	return grid[len(grid)-1], ""
 }
 
 // pyWork computes W(TB) reusing storage; not safe for concurrent use.
@@ -151,6 +215,8 @@ type pyWork struct {
 	nm    core.Normal
 	// fails counts the candidates of the last scan where W failed.
 	fails int
+	// unit: step 0 of the last scan found α̂_MS = 1 without break.
+	unit bool
 }
 
 // pyOut is the outcome at one break date.
@@ -412,30 +478,35 @@ func pyRoyFuller(alpha, se float64, T, p int) float64 {
 	return math.Min(alpha+C*se, 1)
 }
 
-// at computes W(TB) for tb.
-func (w *pyWork) at(tb int) (pyOut, error) {
-	var o pyOut
-	T := w.T
+// alphaAt runs steps 1-3 at tb: OLS detrending, the autoregression for α
+// and the Roy-Fuller and super-efficient estimates; it also returns the SSR
+// of the OLS detrending regression.
+func (w *pyWork) alphaAt(tb int) (o pyOut, ssr float64, err error) {
 	w.setBreak(tb)
-	// Step 1: OLS detrending and the autoregression for α.
-	if _, err := w.ols(w.x, w.K, w.ys, w.u); err != nil {
-		return o, err
+	ssr, err = w.ols(w.x, w.K, w.ys, w.u)
+	if err != nil {
+		return o, 0, err
 	}
 	a, se, _, _, k, err := w.arFit(w.u, true)
 	if err != nil {
-		return o, err
+		return o, 0, err
 	}
 	if !(se > 0) || math.IsNaN(a) {
-		return o, core.ErrNoEstimate
+		return o, 0, core.ErrNoEstimate
 	}
 	o.alpha, o.k = a, k
-	// Steps 2-3.
-	o.alphaM = pyRoyFuller(a, se, T, w.K)
+	o.alphaM = pyRoyFuller(a, se, w.T, w.K)
 	o.alphaMS = o.alphaM
-	if math.Abs(o.alphaM-1) <= 1/math.Sqrt(float64(T)) {
+	if math.Abs(o.alphaM-1) <= 1/math.Sqrt(float64(w.T)) {
 		o.alphaMS = 1
 	}
-	// Step 4: quasi-differences.
+	return o, ssr, nil
+}
+
+// wAt runs steps 4-5 at tb with the quasi-differencing coefficient of o
+// and sets o.W and o.hv.
+func (w *pyWork) wAt(tb int, o pyOut) (pyOut, error) {
+	w.setBreak(tb)
 	al := o.alphaMS
 	pyQuasi(w.ya, w.ys, al)
 	for j := range w.x {
@@ -464,6 +535,31 @@ func (w *pyWork) at(tb int) (pyOut, error) {
 	return o, nil
 }
 
+// noBreakUnit reports whether the super-efficient estimate of α from the
+// regression without break, x_t = (1, t), is 1 (steps 1-3 with p = 2).
+func (w *pyWork) noBreakUnit() (bool, error) {
+	if _, err := w.ols(w.x, 2, w.ys, w.u); err != nil {
+		return false, err
+	}
+	a, se, _, _, _, err := w.arFit(w.u, true)
+	if err != nil {
+		return false, err
+	}
+	if !(se > 0) || math.IsNaN(a) {
+		return false, core.ErrNoEstimate
+	}
+	return math.Abs(pyRoyFuller(a, se, w.T, 2)-1) <= 1/math.Sqrt(float64(w.T)), nil
+}
+
+// at computes W(TB) for tb with PY's threshold T^{-1/2} (step 0 not applied).
+func (w *pyWork) at(tb int) (pyOut, error) {
+	o, _, err := w.alphaAt(tb)
+	if err != nil {
+		return o, err
+	}
+	return w.wAt(tb, o)
+}
+
 func pyQuasi(dst, src []float64, a float64) {
 	dst[0] = src[0]
 	for i := 1; i < len(src); i++ {
@@ -479,6 +575,7 @@ type pySetup struct {
 	lags   int
 	kmax   int
 	table  *pyTable
+	warn   string
 }
 
 func pyResolve(y []float64, cfg *core.Config, needTable bool) (pySetup, error) {
@@ -493,7 +590,7 @@ func pyResolve(y []float64, cfg *core.Config, needTable bool) (pySetup, error) {
 	}
 	s.lo, s.hi = lo, hi
 	s.terms = TermsOf(cfg.Shift, false)
-	s.table = pyTableFor(cfg.Shift, cfg.TrimOr())
+	s.table, s.warn = pyTableFor(cfg.Shift, cfg.TrimOr(), T)
 	if s.table == nil && needTable {
 		return s, core.Errorf(pyID, core.ErrSettings, "trimming %g has no simulated critical values (available: 0.15)", cfg.TrimOr())
 	}
@@ -533,11 +630,24 @@ func (w *pyWork) scan(ctx context.Context, y []float64, s *pySetup, path bool) (
 	var acc float64
 	var ref float64 = math.Inf(-1)
 	w.fails = 0
+	// Step 0 (ours, see the file comment): α̂_MS of the no-break regression.
+	unit, err0 := w.noBreakUnit()
+	w.unit = unit && err0 == nil
+	thr := 1 / math.Sqrt(float64(T))
+	if w.unit {
+		thr *= pyC
+	}
 	for tb := s.lo; tb <= s.hi; tb++ {
 		if ctx != nil && (tb-s.lo)%32 == 0 && ctx.Err() != nil {
 			return 0, 0, bo, nil, core.Errorf(pyID, core.ErrCancelled, "%v", ctx.Err())
 		}
-		o, e := w.at(tb)
+		o, _, e := w.alphaAt(tb)
+		if e == nil {
+			if math.Abs(o.alphaM-1) <= thr {
+				o.alphaMS = 1
+			}
+			o, e = w.wAt(tb, o)
+		}
 		if e != nil || math.IsNaN(o.W) {
 			w.fails++
 			continue
@@ -591,9 +701,9 @@ func RunPY(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, 
 		PValueMethod: "none: no p-value function for the Exp-W statistic is available; the decision uses " +
 			"simulated critical values (see critical_values_source)",
 		CriticalValues: CriticalMap(bpLevels[:], tab.Max[:]),
-		CriticalSource: fmt.Sprintf("our simulation (Perron & Yabu 2009 Table 2 not available): T=%d, %d replications "+
-			"each under i.i.d. N(0,1) and Gaussian random-walk noise, seed %d, larger of the two quantiles at each level",
-			tab.T, tab.Reps, tab.Seed),
+		CriticalSource: fmt.Sprintf("our simulation (Perron & Yabu 2009 Table 2 not available): T in %s, %d replications "+
+			"each under i.i.d. N(0,1) and Gaussian random-walk noise (BIC lags, kmax=4), larger of the two quantiles at each "+
+			"level, interpolated in 1/T (py_tables_gen.go)", pyGridDesc(cfg.Shift, cfg.TrimOr()), tab.Reps),
 		Tail:    "right",
 		Lags:    bo.k,
 		LagRule: s.rule.String(),
@@ -607,7 +717,12 @@ func RunPY(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, 
 			"alpha":    bo.alpha,
 			"alpha_m":  bo.alphaM,
 			"alpha_ms": bo.alphaMS,
+			// 1 when the regression without break gave α̂_MS = 1 (step 0).
+			"unit_root_no_break": map[bool]float64{false: 0, true: 1}[w.unit],
 		},
+	}
+	if s.warn != "" {
+		res.Warnings = append(res.Warnings, s.warn)
 	}
 	res.Reject = Decide(expW, nil, res.CriticalValues, "right", cfg.LevelOr())
 	if w.fails > 0 {
@@ -620,6 +735,18 @@ func RunPY(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, 
 		return nil, WrapError(pyID, err)
 	}
 	return res, nil
+}
+
+// pyGridDesc lists the simulated sample sizes of a model and trimming.
+func pyGridDesc(s core.Shift, trim float64) string {
+	var b strings.Builder
+	for i, g := range pyTables[pyKey{s, int(math.Round(trim * 100))}] {
+		if i > 0 {
+			b.WriteString(", ")
+		}
+		fmt.Fprintf(&b, "%d", g.T)
+	}
+	return "{" + b.String() + "}"
 }
 
 // newPYStat returns the Exp-W statistic for the simulation engine.

@@ -5,21 +5,72 @@ package breaks
 import "github.com/rootshift/rootshift/core"
 
 // pyTables are simulated critical values of Exp-W (levels 0.01, 0.025, 0.05, 0.10):
-// T=500, 2000 replications each under I(0) and I(1) noise, BIC lags with kmax=4, base seed 20261203.
-var pyTables = map[pyKey]*pyTable{
-	pyKey{core.ShiftLevel, 15}: {T: 500, Reps: 2000, Seed: 20276203, // failed replications: I(0) 0, I(1) 0
-		I0:  [4]float64{3.097, 2.235, 1.796, 1.266},
-		I1:  [4]float64{5.776, 3.949, 2.831, 1.831},
-		Max: [4]float64{5.776, 3.949, 2.831, 1.831},
+// T in [50 100 200 500], 2000 replications each under I(0) and I(1) noise, BIC lags with kmax=4, base seed 20261203.
+var pyTables = map[pyKey][]*pyTable{
+	pyKey{core.ShiftLevel, 15}: {
+		{T: 50, Reps: 2000, Seed: 25276203, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{17.265, 10.328, 6.836, 3.761},
+			I1:  [4]float64{22.772, 11.746, 6.946, 3.112},
+			Max: [4]float64{22.772, 11.746, 6.946, 3.761},
+		},
+		{T: 100, Reps: 2000, Seed: 30276203, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{6.131, 4.098, 2.839, 1.939},
+			I1:  [4]float64{5.592, 3.526, 2.611, 1.836},
+			Max: [4]float64{6.131, 4.098, 2.839, 1.939},
+		},
+		{T: 200, Reps: 2000, Seed: 40276203, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{3.458, 2.580, 2.036, 1.524},
+			I1:  [4]float64{3.167, 2.347, 1.942, 1.466},
+			Max: [4]float64{3.458, 2.580, 2.036, 1.524},
+		},
+		{T: 500, Reps: 2000, Seed: 70276203, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{3.172, 2.634, 1.921, 1.359},
+			I1:  [4]float64{2.928, 2.160, 1.710, 1.327},
+			Max: [4]float64{3.172, 2.634, 1.921, 1.359},
+		},
 	},
-	pyKey{core.ShiftSlope, 15}: {T: 500, Reps: 2000, Seed: 20276213, // failed replications: I(0) 0, I(1) 0
-		I0:  [4]float64{2.958, 2.106, 1.540, 1.036},
-		I1:  [4]float64{44.455, 27.560, 10.040, 2.237},
-		Max: [4]float64{44.455, 27.560, 10.040, 2.237},
+	pyKey{core.ShiftSlope, 15}: {
+		{T: 50, Reps: 2000, Seed: 25276213, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{9.435, 5.554, 3.453, 2.060},
+			I1:  [4]float64{43.423, 19.750, 8.604, 3.447},
+			Max: [4]float64{43.423, 19.750, 8.604, 3.447},
+		},
+		{T: 100, Reps: 2000, Seed: 30276213, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{4.035, 2.859, 2.096, 1.301},
+			I1:  [4]float64{8.662, 5.102, 3.149, 1.881},
+			Max: [4]float64{8.662, 5.102, 3.149, 1.881},
+		},
+		{T: 200, Reps: 2000, Seed: 40276213, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{3.357, 2.511, 1.769, 1.177},
+			I1:  [4]float64{5.303, 3.322, 2.168, 1.366},
+			Max: [4]float64{5.303, 3.322, 2.168, 1.366},
+		},
+		{T: 500, Reps: 2000, Seed: 70276213, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{3.247, 2.360, 1.545, 1.014},
+			I1:  [4]float64{4.054, 2.352, 1.712, 1.210},
+			Max: [4]float64{4.054, 2.360, 1.712, 1.210},
+		},
 	},
-	pyKey{core.ShiftBoth, 15}: {T: 500, Reps: 2000, Seed: 20276223, // failed replications: I(0) 0, I(1) 0
-		I0:  [4]float64{4.647, 3.906, 3.128, 2.410},
-		I1:  [4]float64{81.776, 51.654, 33.029, 18.609},
-		Max: [4]float64{81.776, 51.654, 33.029, 18.609},
+	pyKey{core.ShiftBoth, 15}: {
+		{T: 50, Reps: 2000, Seed: 25276223, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{39.071, 25.760, 15.302, 8.846},
+			I1:  [4]float64{117.550, 61.188, 33.377, 16.449},
+			Max: [4]float64{117.550, 61.188, 33.377, 16.449},
+		},
+		{T: 100, Reps: 2000, Seed: 30276223, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{11.314, 6.616, 4.931, 3.578},
+			I1:  [4]float64{28.125, 12.675, 6.241, 3.885},
+			Max: [4]float64{28.125, 12.675, 6.241, 3.885},
+		},
+		{T: 200, Reps: 2000, Seed: 40276223, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{5.506, 4.340, 3.630, 2.723},
+			I1:  [4]float64{8.330, 5.378, 4.083, 3.178},
+			Max: [4]float64{8.330, 5.378, 4.083, 3.178},
+		},
+		{T: 500, Reps: 2000, Seed: 70276223, // failed replications: I(0) 0, I(1) 0
+			I0:  [4]float64{4.770, 3.752, 3.052, 2.325},
+			I1:  [4]float64{4.896, 3.874, 3.339, 2.657},
+			Max: [4]float64{4.896, 3.874, 3.339, 2.657},
+		},
 	},
 }

@@ -3,18 +3,19 @@
 // py_tables_gen simulates critical values of the Perron-Yabu Exp-W statistic
 // (breaks.RunPY) and writes py_tables.go.
 //
-// For each model (I level, II slope, III both) and trimming, Exp-W is
-// computed on T = 500 observations of i.i.d. N(0,1) noise (I(0)) and of a
-// Gaussian random walk y_t = y_{t-1} + e_t, y_0 = 0 (I(1)), with no break;
+// For each model (I level, II slope, III both), trimming and T in
+// {50, 100, 200, 500}, Exp-W is computed on T observations of i.i.d.
+// N(0,1) noise (I(0)) and of a Gaussian random walk y_t = y_{t-1} + e_t, y_0 = 0 (I(1)), with no break;
 // the lag order of both autoregressions is chosen by BIC with kmax = 4 (the
 // limit does not depend on the lags with i.i.d. innovations; kmax = 4 keeps
 // the run short). The table keeps both sets of quantiles and their maximum,
 // which the test uses so that its size is controlled in both cases.
 //
-// Replication r of model s, trimming ε and noise n (0: I(0), 1: I(1)) draws
-// from rand.NewPCG(seed + 10 s + 100 n + 1000 ε, r).
+// Replication r of model s, trimming ε, noise n (0: I(0), 1: I(1)) and
+// sample size T draws from rand.NewPCG(seed + 10 s + 100 n + 1000 ε + 100000 T, r).
 //
-// Run with: go run py_tables_gen.go [-reps N] [-T n] (from breaks/).
+// Run with: go run py_tables_gen.go [-reps N] (from breaks/); about 1.5 minutes
+// on 2 cores.
 package main
 
 import (
@@ -48,9 +49,11 @@ func row(v [4]float64) string {
 	return fmt.Sprintf("{%.3f, %.3f, %.3f, %.3f}", v[0], v[1], v[2], v[3])
 }
 
+// sizes are the simulated sample sizes.
+var sizes = []int{50, 100, 200, 500}
+
 func main() {
 	reps := flag.Int("reps", 2000, "replications per model, trimming and noise")
-	T := flag.Int("T", 500, "series length")
 	seed := flag.Uint64("seed", 20261203, "base seed")
 	out := flag.String("o", "py_tables.go", "output file")
 	flag.Parse()
@@ -62,43 +65,47 @@ func main() {
 	fmt.Fprintf(&buf, "package breaks\n\n")
 	fmt.Fprintf(&buf, "import \"github.com/rootshift/rootshift/core\"\n\n")
 	fmt.Fprintf(&buf, "// pyTables are simulated critical values of Exp-W (levels 0.01, 0.025, 0.05, 0.10):\n")
-	fmt.Fprintf(&buf, "// T=%d, %d replications each under I(0) and I(1) noise, BIC lags with kmax=4, base seed %d.\n", *T, *reps, *seed)
-	fmt.Fprintf(&buf, "var pyTables = map[pyKey]*pyTable{\n")
+	fmt.Fprintf(&buf, "// T in %v, %d replications each under I(0) and I(1) noise, BIC lags with kmax=4, base seed %d.\n", sizes, *reps, *seed)
+	fmt.Fprintf(&buf, "var pyTables = map[pyKey][]*pyTable{\n")
 	for _, trim := range []float64{0.15} {
 		pct := int(math.Round(trim * 100))
 		for si, sh := range shifts {
-			var q [2][4]float64
-			var failed [2]int
-			for n := 0; n < 2; n++ {
-				s := *seed + uint64(10*si+100*n+1000*pct)
-				log.Printf("model %s trim %.2f noise I(%d)", sh, trim, n)
-				d, err := breaks.PYSimulate(context.Background(), breaks.PYSimSpec{
-					Shift: sh, Trim: trim, T: *T, I1: n == 1,
-					Cfg:  &core.Config{LagRule: core.LagBIC, MaxLags: 4},
-					Reps: *reps, Seed: s})
-				if err != nil {
-					log.Fatal(err)
-				}
-				ok := d[:0]
-				for _, v := range d {
-					if math.IsNaN(v) {
-						failed[n]++
-						continue
+			fmt.Fprintf(&buf, "\tpyKey{%s, %d}: {\n", names[si], pct)
+			for _, T := range sizes {
+				var q [2][4]float64
+				var failed [2]int
+				for n := 0; n < 2; n++ {
+					s := *seed + uint64(10*si+100*n+1000*pct+100000*T)
+					log.Printf("model %s trim %.2f T %d noise I(%d)", sh, trim, T, n)
+					d, err := breaks.PYSimulate(context.Background(), breaks.PYSimSpec{
+						Shift: sh, Trim: trim, T: T, I1: n == 1,
+						Cfg:  &core.Config{LagRule: core.LagBIC, MaxLags: 4},
+						Reps: *reps, Seed: s})
+					if err != nil {
+						log.Fatal(err)
 					}
-					ok = append(ok, v)
+					ok := d[:0]
+					for _, v := range d {
+						if math.IsNaN(v) {
+							failed[n]++
+							continue
+						}
+						ok = append(ok, v)
+					}
+					slices.Sort(ok)
+					for li, a := range levels {
+						q[n][li] = quantile(ok, 1-a)
+					}
 				}
-				slices.Sort(ok)
-				for li, a := range levels {
-					q[n][li] = quantile(ok, 1-a)
+				var mx [4]float64
+				for li := range levels {
+					mx[li] = math.Max(q[0][li], q[1][li])
 				}
+				fmt.Fprintf(&buf, "\t\t{T: %d, Reps: %d, Seed: %d, // failed replications: I(0) %d, I(1) %d\n",
+					T, *reps, *seed+uint64(10*si+1000*pct+100000*T), failed[0], failed[1])
+				fmt.Fprintf(&buf, "\t\t\tI0: [4]float64%s,\n\t\t\tI1: [4]float64%s,\n\t\t\tMax: [4]float64%s,\n\t\t},\n", row(q[0]), row(q[1]), row(mx))
 			}
-			var mx [4]float64
-			for li := range levels {
-				mx[li] = math.Max(q[0][li], q[1][li])
-			}
-			fmt.Fprintf(&buf, "\tpyKey{%s, %d}: {T: %d, Reps: %d, Seed: %d, // failed replications: I(0) %d, I(1) %d\n",
-				names[si], pct, *T, *reps, *seed+uint64(10*si+1000*pct), failed[0], failed[1])
-			fmt.Fprintf(&buf, "\t\tI0: [4]float64%s,\n\t\tI1: [4]float64%s,\n\t\tMax: [4]float64%s,\n\t},\n", row(q[0]), row(q[1]), row(mx))
+			fmt.Fprintf(&buf, "\t},\n")
 		}
 	}
 	fmt.Fprintf(&buf, "}\n")
