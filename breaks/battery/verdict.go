@@ -98,12 +98,18 @@ func (r *runner) verdict() error {
 	}{
 		{&ev.adfC, "adf", core.TrendConstant}, {&ev.adfT, "adf", core.TrendLinear},
 		{&ev.kpssC, "kpss", core.TrendConstant}, {&ev.kpssT, "kpss", core.TrendLinear},
-		{&ev.bp, "bp", r.bpTrend()},
 	}
 	for _, st := range steps {
 		if *st.dst, err = get(st.id, st.trend); err != nil {
 			return err
 		}
+	}
+	// A series trends when its differences have a significant mean (drift)
+	// or when it is stationary only around a linear trend (ADF with a trend
+	// rejects while ADF with a constant does not).
+	trending := drift(r.y) || (rejects(ev.adfT) && !rejects(ev.adfC))
+	if ev.bp, err = get("bp", r.bpTrend(trending)); err != nil {
+		return err
 	}
 	// The one-break unit-root tests: with the shift the analyst chose, or,
 	// left on auto, a level shift for a series without drift and a shift in
@@ -111,7 +117,7 @@ func (r *runner) verdict() error {
 	shift := core.ShiftLevel
 	if r.s.Shift != "" {
 		shift, _ = core.ParseShift(r.s.Shift)
-	} else if drift(r.y) {
+	} else if trending {
 		shift = core.ShiftBoth
 	}
 	for _, st := range []struct {
@@ -227,36 +233,44 @@ func (r *runner) verdict() error {
 
 // bpTrend dates breaks in the mean for a series without a clear trend and
 // in the trend function otherwise (both coefficients allowed to change).
-func (r *runner) bpTrend() core.Trend {
+func (r *runner) bpTrend(trending bool) core.Trend {
 	if r.s.Trend == "constant" || r.s.Trend == "none" {
 		return core.TrendConstant
 	}
 	if r.s.Trend == "linear" {
 		return core.TrendLinear
 	}
-	// Auto: a trend is judged present when the average change is large
-	// against its dispersion (|mean Δy| > 2 s.e.), the drift check below.
-	if drift(r.y) {
+	if trending {
 		return core.TrendLinear
 	}
 	return core.TrendConstant
 }
 
-// drift reports whether the mean of Δy differs from zero by more than two
-// standard errors (common practice, no source).
+// drift reports whether the series trends: whether the mean of Δy differs
+// from zero by more than two standard errors, the standard error from the
+// long-run variance of Δy (Bartlett kernel, Newey & West 1994 bandwidth).
+// The long-run variance makes the check work both for a random walk with
+// drift and for a trend-stationary series, whose over-differenced noise has
+// a long-run variance near zero (common practice, no source).
 func drift(y []float64) bool {
 	n := len(y) - 1
-	if n < 3 {
+	if n < 8 {
 		return false
 	}
 	m := (y[n] - y[0]) / float64(n)
-	ss := 0.0
-	for i := 1; i <= n; i++ {
-		d := y[i] - y[i-1] - m
-		ss += d * d
+	d := make([]float64, n)
+	for i := range d {
+		d[i] = y[i+1] - y[i] - m
 	}
-	se := math.Sqrt(ss/float64(n-1)) / math.Sqrt(float64(n))
-	return se > 0 && math.Abs(m) > 2*se
+	lrv, _, err := core.LongRunVariance(d, core.KernelBartlett, core.BandwidthNeweyWest, 0)
+	if err != nil || !(lrv >= 0) {
+		return false
+	}
+	se := math.Sqrt(lrv / float64(n))
+	if se == 0 {
+		return m != 0
+	}
+	return math.Abs(m) > 2*se
 }
 
 func rejects(r *schema.Result) bool    { return r != nil && r.Reject }
