@@ -8,7 +8,7 @@ cd "$(dirname "$0")/.."
 
 need=()
 command -v chromium >/dev/null 2>&1 || need+=(chromium)
-python3 -c 'import numpy' >/dev/null 2>&1 || need+=(python3-numpy)
+{ python3 -c 'import numpy' || /usr/bin/python3 -c 'import numpy'; } >/dev/null 2>&1 || need+=(python3-numpy)
 command -v node >/dev/null 2>&1 || need+=(nodejs)
 if [ ${#need[@]} -gt 0 ]; then
   echo "== installing ${need[*]} (Debian packages)"
