@@ -379,7 +379,7 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 	}
 	positive := positiveSeries(r.y)
 	diffTransform := func() string {
-		if positive && r.s.Transform == "" && spread(r.y) >= 2 {
+		if positive && r.s.Transform == "" && spread(r.y) >= 1.5 {
 			return TransformLogDiff
 		}
 		return TransformDifference
@@ -495,7 +495,8 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 			v.Class = ClassUnitRootBreaks
 			v.Breaks = append(v.Breaks, dB...)
 			add(&sup, ev.dBp)
-			v.Explanation = fmt.Sprintf("A unit root (%s) with breaks in its drift: ADF does not reject, KPSS rejects stationarity, the break-aware unit-root tests do not reject, and Bai-Perron dates shifts in the mean of the first difference at %s. Difference it, with shift dummies for the drift at those dates.", driftWords, breakText(dB))
+			v.Drift = true
+			v.Explanation = fmt.Sprintf("A unit root whose drift changes: ADF does not reject, KPSS rejects stationarity, the break-aware unit-root tests do not reject, and Bai-Perron dates shifts in the mean of the first difference at %s. Difference it, with shift dummies for the drift at those dates.", breakText(dB))
 		} else {
 			v.Class = ClassUnitRoot
 			v.Explanation = fmt.Sprintf("A unit root (%s): ADF does not reject a unit root and KPSS rejects stationarity", driftWords)
