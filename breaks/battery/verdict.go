@@ -505,6 +505,9 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 			}
 			v.Explanation += ". Difference it."
 		}
+		if rejects(ev.bp) {
+			v.Explanation += " Bai-Perron on the level finds breaks, but its inference assumes a stationary series; for a unit-root series breaks are dated on the first difference instead."
+		}
 		if rejects(ev.za) && notRejects(ev.ls1) {
 			v.Explanation += fmt.Sprintf(" Zivot-Andrews rejects with a break at %s, but minimum-t tests over-reject when a break is also present under the unit-root null (Lee & Strazicich 2003); the Lee-Strazicich LM test, which allows the break under the null, does not reject, so the unit root stands.", breakText(ev.za.Breaks))
 		}
