@@ -15,8 +15,9 @@ const DemoName = "vellmark-demo.csv"
 const DemoDescription = "Invented demo data: monthly indicators (2000-01 to 2019-12) of Vellmark, a fictional " +
 	"region. Every series is simulated by rootshift's seeded demo generator; none is real data. " +
 	"freight_volume is a random walk; consumer_prices a random walk with drift (in levels, positive); " +
-	"power_demand is stationary around a linear trend; jobless_rate is stationary around a level shift " +
-	"after 2009-03 (an invented crisis); credit_spread is stationary; housing_index grows explosively " +
+	"power_demand is stationary around a linear trend; jobless_rate is stationary around a level shift that starts " +
+	"in 2009-03 (an invented crisis; the break date, the last month of the old regime, is 2009-02); " +
+	"credit_spread is stationary; housing_index grows explosively " +
 	"from 2004-07 to 2007-06 and then collapses; visitor_nights is a random walk whose drift turns from growth to " +
 	"decline after 2009-02."
 

@@ -53,11 +53,59 @@ const (
 	TransformSecondDiff   = "second-difference"
 )
 
+// all lists every result of the evidence, in a fixed order.
+func (ev *evidence) all() []*schema.Result {
+	out := []*schema.Result{}
+	for _, r := range []*schema.Result{ev.adfC, ev.adfT, ev.kpssC, ev.kpssT, ev.za, ev.ls1, ev.bp, ev.sadf, ev.driftCheck, ev.dAdf, ev.dKpss, ev.dBp} {
+		if r != nil {
+			out = append(out, r)
+		}
+	}
+	return append(out, ev.extra...)
+}
+
+// agrees reports whether a result points the same way as the class. For
+// inconclusive, results pointing to stationarity count as "for" (the
+// explanation says so).
+func agrees(class string, r *schema.Result) bool {
+	firstDiff := r.Variant == "first difference"
+	switch r.Test {
+	case "sadf", "gsadf":
+		return r.Reject == (class == ClassExplosive)
+	case "bp", "py":
+		if firstDiff {
+			return r.Reject == (class == ClassUnitRootBreaks)
+		}
+		switch class {
+		case ClassBreakStationary:
+			return r.Reject
+		case ClassStationary, ClassTrendStationary:
+			return !r.Reject
+		}
+		return true // breaks in the level of a unit-root series are not evidence either way
+	case "kpss":
+		if firstDiff {
+			return !r.Reject
+		}
+		stationary := class == ClassStationary || class == ClassTrendStationary || class == ClassBreakStationary || class == ClassInconclusive
+		return r.Reject != stationary
+	}
+	if r.Tail == "right" {
+		return r.Reject == (class == ClassExplosive)
+	}
+	if firstDiff {
+		return r.Reject // the difference is stationary: I(1) rather than I(2)
+	}
+	stationary := class == ClassStationary || class == ClassTrendStationary || class == ClassBreakStationary || class == ClassInconclusive
+	return r.Reject == stationary
+}
+
 // evidence collects the results the verdict reads.
 type evidence struct {
 	adfC, adfT, kpssC, kpssT *schema.Result
 	za, ls1, bp, sadf        *schema.Result
 	dAdf, dKpss, dBp         *schema.Result // on the first difference
+	T                        int
 	driftCheck               *schema.Result // right-tailed ADF with trend, when sadf rejects under drift
 	extra                    []*schema.Result
 }
@@ -71,7 +119,7 @@ func (r *runner) verdict() error {
 	if len(set) == 0 {
 		set = DefaultVerdictTests
 	}
-	var ev evidence
+	ev := evidence{T: len(r.y)}
 	find := func(id string, trend core.Trend) *schema.Result {
 		for i := range r.series.Results {
 			res := &r.series.Results[i]
@@ -221,6 +269,12 @@ func (r *runner) verdict() error {
 			}
 		}
 	}
+	if ev.adfC == nil && ev.adfT == nil && ev.kpssC == nil && ev.kpssT == nil && ev.za == nil && ev.ls1 == nil {
+		// Nothing the verdict needs could be computed: no verdict, only the
+		// errors that say why.
+		r.series.Warnings = append(r.series.Warnings, "no verdict: none of the tests the verdict needs could be computed (see errors)")
+		return nil
+	}
 	v := decide(&ev, r)
 	v.Tests = set
 	if r.s.Window != "" {
@@ -283,6 +337,9 @@ func describe(r *schema.Result) string {
 	switch r.Test {
 	case "adf":
 		name = "ADF"
+		if r.Tail == "right" {
+			name = "right-tailed ADF"
+		}
 	case "kpss":
 		name = "KPSS"
 	case "za":
@@ -295,8 +352,14 @@ func describe(r *schema.Result) string {
 		name = "SADF"
 	}
 	spec := r.Trend
-	if r.Variant == "first difference" {
+	if r.Shift != "" {
+		spec += ", " + r.Shift + " shift"
+	}
+	switch {
+	case r.Variant == "first difference":
 		spec = "first difference"
+	case strings.Contains(r.Variant, "log levels") || strings.Contains(r.Variant, "observations"):
+		spec = r.Variant
 	}
 	stat := "n/a"
 	if r.Statistic != nil {
@@ -306,11 +369,38 @@ func describe(r *schema.Result) string {
 	if r.PValue != nil {
 		p = fmt.Sprintf(", p=%.3f", *r.PValue)
 	}
-	dec := "does not reject"
-	if r.Reject {
-		dec = "rejects"
+	return fmt.Sprintf("%s (%s): %s at %g (statistic %s%s)", name, spec, decision(r), r.Level, stat, p)
+}
+
+// decision says what a result decided, in words that fit its null.
+func decision(r *schema.Result) string {
+	switch r.Test {
+	case "kpss":
+		if r.Reject {
+			return "rejects stationarity"
+		}
+		return "does not reject stationarity"
+	case "bp", "py":
+		if r.Reject {
+			return "finds a break"
+		}
+		return "finds no break"
+	case "sadf", "gsadf":
+		if r.Reject {
+			return "finds explosive behaviour"
+		}
+		return "finds no explosive behaviour"
 	}
-	return fmt.Sprintf("%s (%s): %s %s at %g (statistic %s%s)", name, spec, dec, nullShort(r), r.Level, stat, p)
+	if r.Tail == "right" {
+		if r.Reject {
+			return "rejects a unit root in favour of an explosive root"
+		}
+		return "does not reject a unit root against an explosive root"
+	}
+	if r.Reject {
+		return "rejects a unit root"
+	}
+	return "does not reject a unit root"
 }
 
 func nullShort(r *schema.Result) string {
@@ -367,9 +457,14 @@ func breakText(b []schema.Break) string {
 func decide(ev *evidence, r *runner) *schema.Verdict {
 	v := &schema.Verdict{Breaks: []schema.Break{}}
 	var sup, against []string
+	listed := map[*schema.Result]bool{}
 	add := func(list *[]string, res *schema.Result) {
+		if res == nil || listed[res] {
+			return
+		}
 		if d := describe(res); d != "" {
 			*list = append(*list, d)
+			listed[res] = true
 		}
 	}
 	zero, one, two := 0, 1, 2
@@ -379,7 +474,7 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 	}
 	positive := positiveSeries(r.y)
 	diffTransform := func() string {
-		if positive && r.s.Transform == "" && spread(r.y) >= 1.5 {
+		if positive && r.s.Transform == "" && spread(r.y) >= 1.5 && drift(logs(r.y)) {
 			return TransformLogDiff
 		}
 		return TransformDifference
@@ -499,11 +594,11 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 			v.Explanation = fmt.Sprintf("A unit root whose drift changes: ADF does not reject, KPSS rejects stationarity, the break-aware unit-root tests do not reject, and Bai-Perron dates shifts in the mean of the first difference at %s. Difference it, with shift dummies for the drift at those dates.", breakText(dB))
 		} else {
 			v.Class = ClassUnitRoot
-			v.Explanation = fmt.Sprintf("A unit root (%s): ADF does not reject a unit root and KPSS rejects stationarity", driftWords)
+			v.Explanation = fmt.Sprintf("A unit root (%s): ADF does not reject a unit root", driftWords)
 			if ev.ls1 != nil || ev.za != nil {
-				v.Explanation += ", also when a break is allowed"
+				v.Explanation += ", nor do the tests that allow a break"
 			}
-			v.Explanation += ". Difference it."
+			v.Explanation += ", and KPSS rejects stationarity. Difference it."
 		}
 		if rejects(ev.bp) {
 			v.Explanation += " Bai-Perron on the level finds breaks, but its inference assumes a stationary series; for a unit-root series breaks are dated on the first difference instead."
@@ -514,7 +609,7 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 		if *v.Order == 2 {
 			v.Explanation += " The first difference itself looks I(1) (ADF does not reject, KPSS rejects): difference twice."
 		} else if v.Transform == TransformLogDiff {
-			v.Explanation += " The series is positive and spans a wide range: the log difference (growth rate) is the natural transform."
+			v.Explanation += " The series is positive and grows steadily in logs: the log difference (growth rate) is the natural transform."
 		}
 	default:
 		v.Class = ClassInconclusive
@@ -537,14 +632,19 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 		case !rejects(ev.adfC) && !rejects(ev.adfT) && !rejects(ev.kpssC) && !rejects(ev.kpssT):
 			v.Explanation = "Inconclusive: neither null is rejected — the unit-root tests cannot reject a unit root and KPSS cannot reject stationarity. The sample is probably too short or the root too close to one for the tests to tell. Differencing is the cautious choice for forecasting; a longer sample would help."
 		default:
-			v.Explanation = "Inconclusive: the tests contradict each other (see the results for and against) and no break explains the contradiction. Differencing is the cautious choice; check the settings (trend, lags) and the sample."
+			v.Explanation = "Inconclusive: the tests contradict each other and no break explains the contradiction (results pointing to stationarity are listed as for, those pointing to a unit root as against). Differencing is the cautious choice; check the settings (trend, lags) and the sample."
 		}
 	}
-	for _, res := range ev.extra {
-		if res.Reject {
-			sup = append(sup, describe(res))
+	// Every result the verdict read is listed, for or against: a
+	// contradiction is never hidden.
+	for _, res := range ev.all() {
+		if listed[res] {
+			continue
+		}
+		if agrees(v.Class, res) {
+			add(&sup, res)
 		} else {
-			against = append(against, describe(res))
+			add(&against, res)
 		}
 	}
 	v.Supporting = sup
@@ -587,9 +687,23 @@ func strongBreak(bp *schema.Result) bool {
 	return ok && *bp.Statistic > cv
 }
 
-// breakTestRejects: the LM test (ls1) rejects, or za when ls1 was not run.
+// breakTestRejects: the LM test (ls1) rejects, or za when ls1 was not run,
+// or za rejects overwhelmingly (p at most 0.001, the end of its table) at a
+// date Bai-Perron also finds: minimum-t tests over-reject under a unit root
+// with a break, but not by that much (Lee & Strazicich 2003 report size
+// distortions at the 5% level), and the LM test's own table is for T = 100.
 func breakTestRejects(ev *evidence) bool {
-	return rejects(ev.ls1) || (ev.ls1 == nil && rejects(ev.za))
+	if rejects(ev.ls1) || (ev.ls1 == nil && rejects(ev.za)) {
+		return true
+	}
+	return overwhelmingZA(ev)
+}
+
+func overwhelmingZA(ev *evidence) bool {
+	if ev.za == nil || ev.za.PValue == nil || *ev.za.PValue > 0.001 || ev.bp == nil || !ev.bp.Reject {
+		return false
+	}
+	return corroborated(ev.za, ev.bp.Breaks, ev.T)
 }
 
 // breakLead is the break-aware result that carries the verdict, with the
@@ -597,6 +711,9 @@ func breakTestRejects(ev *evidence) bool {
 // regression that includes it, which locates a large shift more closely
 // than the LM test's minimum; the LM test is what guards the decision.
 func breakLead(ev *evidence) *schema.Result {
+	if overwhelmingZA(ev) && !rejects(ev.ls1) {
+		return ev.za
+	}
 	if ev.ls1 != nil && rejects(ev.ls1) {
 		if rejects(ev.za) && len(ev.za.Breaks) > 0 {
 			return ev.za
@@ -695,6 +812,14 @@ func peakEnd(r *schema.Result, T int) int {
 	return min(T, max(q.Index[best], 20))
 }
 
+func logs(y []float64) []float64 {
+	out := make([]float64, len(y))
+	for i, v := range y {
+		out[i] = math.Log(v)
+	}
+	return out
+}
+
 func positiveSeries(y []float64) bool {
 	for _, x := range y {
 		if !(x > 0) {
@@ -774,7 +899,7 @@ func windowText(w *schema.WindowCheck) string {
 		if k.Reject {
 			dec = "rejects"
 		}
-		s += fmt.Sprintf(" Perron's (1989) known-break test with the break at %s, the best-fitting date in the window, %s a unit root (t = %.2f).", when, dec, *k.Statistic)
+		s += fmt.Sprintf(" Perron's (1989) known-break test with the break at %s, the best-fitting date in the window, %s a unit root (t = %.2f); the date was chosen from the data inside the window, so Perron's fixed-date critical values overstate the evidence somewhat.", when, dec, *k.Statistic)
 	}
 	return s
 }
