@@ -232,13 +232,21 @@ func (w *adfWork) stat(a adfTest, tbs []int, spec lmLagSpec) (float64, int, int,
 		T := w.d.T
 		prev := 0
 		var means [3]float64
+		ssr1 := 0.0 // Σ (y_t - regime mean)², the SSR of step 1
 		for j := 0; j <= len(tbs); j++ {
 			end := T
 			if j < len(tbs) {
 				end = tbs[j]
 			}
-			means[j] = (py[end] - py[prev]) / float64(end-prev)
+			n := float64(end - prev)
+			means[j] = (py[end] - py[prev]) / n
+			ssr1 += (w.d.py2[end] - w.d.py2[prev]) - n*means[j]*means[j]
 			prev = end
+		}
+		// Exact-fit rule of the levels regression with an intercept: the
+		// scale is the centred Σ (y_t - ȳ)² of the standardised series.
+		if tss := w.d.py2[T] - py[T]*py[T]/float64(T); ssr1 <= ExactFitTol*tss {
+			return math.NaN(), 0, 0, errExactFit
 		}
 		c := cols[0][:0]
 		c = append(c, one(lmKData, lmYlag), lmTerm{lmAtom{lmKStep, 0}, -means[0]})
@@ -444,6 +452,10 @@ func lmSearch2Gap(ctx context.Context, lo, hi, gap int, f lmCandStat, rows bool)
 			tbs[0], tbs[1] = t1, t2
 			tau, k, nobs, err := f(tbs[:])
 			if err != nil {
+				if IsExactFit(err) {
+					r.exact.add(tbs[:])
+					continue
+				}
 				r.lastErr = err
 				continue
 			}

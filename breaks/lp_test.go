@@ -50,6 +50,9 @@ func adfBrute(y []float64, a adfTest, tbs []int, spec lmLagSpec) (float64, int, 
 		if err != nil {
 			return math.NaN(), 0, err
 		}
+		if f.SSR <= ExactFitTol*centredSS(y) {
+			return math.NaN(), 0, errExactFit
+		}
 		src = f.Resid
 	}
 	yv := func(t int) float64 { return src[t-1] }

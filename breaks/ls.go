@@ -68,6 +68,7 @@ type lmXData struct {
 	pp    [][]float64 // pp[lmTri(i,j)][t] = Σ_{s<=t} col[i][s] col[j][s]
 	y     []float64   // the (standardised) series, y[t] for t = 1..T
 	py    []float64   // prefix sums of y
+	py2   []float64   // prefix sums of y²
 }
 
 func lmTri(i, j int) int {
@@ -102,9 +103,11 @@ func (d *lmXData) build(y []float64, kmax int) {
 	nc := d.nc
 	d.y = lmGrow(d.y, T+1)
 	d.py = lmGrow(d.py, T+1)
+	d.py2 = lmGrow(d.py2, T+1)
 	for t := 1; t <= T; t++ {
 		d.y[t] = y[t-1]
 		d.py[t] = d.py[t-1] + y[t-1]
+		d.py2[t] = d.py2[t-1] + y[t-1]*y[t-1]
 	}
 	d.col = lmGrow2(d.col, nc)
 	d.s1 = lmGrow2(d.s1, nc)
@@ -336,6 +339,11 @@ func lmSelectAndTest(f lmFiller, g *lmGram, ds lmDesign, spec lmLagSpec) (tau fl
 				continue
 			}
 			ssr := g.yy - g.cum[w]
+			if ssr <= ExactFitTol*g.yy {
+				// The largest valid order fits exactly (the orders are
+				// nested on one sample, so none is a statistic).
+				return math.NaN(), kk, g.obs, errExactFit
+			}
 			if spec.rule == core.LagTSig {
 				if kk == 0 {
 					k = 0
@@ -367,6 +375,9 @@ func lmSelectAndTest(f lmFiller, g *lmGram, ds lmDesign, spec lmLagSpec) (tau fl
 	ssr, err := g.solve(w)
 	if err != nil {
 		return math.NaN(), k, g.obs, err
+	}
+	if ssr <= ExactFitTol*g.yy {
+		return math.NaN(), k, g.obs, errExactFit
 	}
 	tau = g.tstat(ds.stat, w, ssr)
 	if math.IsNaN(tau) || math.IsInf(tau, 0) {
@@ -509,8 +520,14 @@ func (w *lmWork) lmStat(m lmModel, tbs []int, spec lmLagSpec) (tau float64, k, n
 		}
 	}
 	w.g0.fill(d, zc, w.dep, 2)
-	if _, err := w.g0.solve(nz); err != nil {
+	ssr0, err := w.g0.solve(nz)
+	if err != nil {
 		return math.NaN(), 0, 0, err
+	}
+	if ssr0 <= ExactFitTol*w.g0.yy {
+		// Δy is exactly a constant plus the break terms: S̃ is rounding
+		// noise, and its t-ratio would be meaningless.
+		return math.NaN(), 0, 0, errExactFit
 	}
 	dl := w.g0.nm.Coef[:nz]
 	w.m = m
@@ -706,6 +723,7 @@ type lmSearchResult struct {
 	ncand   int
 	lo, hi  float64 // smallest and largest statistic over candidates
 	lastErr error
+	exact   exactSet // candidates that fit exactly (ExactFitTol): the search fails
 }
 
 // lmSearch1 evaluates f at TB = lo..hi and keeps the minimum.
@@ -722,6 +740,10 @@ func lmSearch1(ctx context.Context, lo, hi int, f lmCandStat, path bool) (lmSear
 		tbs[0] = tb
 		tau, k, nobs, err := f(tbs[:])
 		if err != nil {
+			if IsExactFit(err) {
+				r.exact.add(tbs[:])
+				continue
+			}
 			r.lastErr = err
 			continue
 		}
@@ -747,6 +769,9 @@ func lmSearch2(ctx context.Context, lo, hi int, f lmCandStat, rows bool) (lmSear
 func lmSearchError(id string, r lmSearchResult, err error) error {
 	if err != nil {
 		return &core.Error{Test: id, Err: fmt.Errorf("%w: %v", core.ErrCancelled, err)}
+	}
+	if e := r.exact.err(); e != nil {
+		return WrapError(id, e)
 	}
 	if r.ncand == 0 {
 		if r.lastErr != nil {

@@ -30,6 +30,9 @@ func lmBruteSelect(spec lmLagSpec, build func(k, t0 int) ([][]float64, []float64
 			if err != nil {
 				continue
 			}
+			if f.SSR <= ExactFitTol*sumSq(y) {
+				return math.NaN(), kk, errExactFit
+			}
 			if spec.rule == core.LagTSig {
 				if kk == 0 {
 					k = 0
@@ -56,6 +59,9 @@ func lmBruteSelect(spec lmLagSpec, build func(k, t0 int) ([][]float64, []float64
 	f, err := ls.Fit(X, y)
 	if err != nil {
 		return math.NaN(), k, err
+	}
+	if f.SSR <= ExactFitTol*sumSq(y) {
+		return math.NaN(), k, errExactFit
 	}
 	return f.TStat(stat(k)), k, nil
 }
@@ -97,6 +103,9 @@ func lmBrute(y []float64, m lmModel, tbs []int, spec lmLagSpec) (float64, int, e
 	if err != nil {
 		return math.NaN(), 0, err
 	}
+	if f.SSR <= ExactFitTol*sumSq(dy) {
+		return math.NaN(), 0, errExactFit
+	}
 	dl := f.Coef
 	S := make([]float64, T+1) // S[t], t = 1..T
 	for t := 1; t <= T; t++ {
@@ -129,12 +138,18 @@ func lmBrute(y []float64, m lmModel, tbs []int, spec lmLagSpec) (float64, int, e
 	return lmBruteSelect(spec, build, func(int) int { return nz }, func(k int) int { return nz + k })
 }
 
-// lmBruteSearch runs the minimum search with a brute statistic.
+// lmBruteSearch runs the minimum search with a brute statistic; an exact
+// fit stops it with statistic NaN at the dates of the exact fit (the rule
+// of lmSearch1/lmSearch2).
 func lmBruteSearch(nb, lo, hi int, f func(tbs []int) (float64, int, error)) (float64, []int) {
 	best, arg := math.Inf(1), []int(nil)
 	if nb == 1 {
 		for tb := lo; tb <= hi; tb++ {
-			if s, _, err := f([]int{tb}); err == nil && s < best {
+			s, _, err := f([]int{tb})
+			if IsExactFit(err) {
+				return math.NaN(), []int{tb}
+			}
+			if err == nil && s < best {
 				best, arg = s, []int{tb}
 			}
 		}
@@ -142,7 +157,11 @@ func lmBruteSearch(nb, lo, hi int, f func(tbs []int) (float64, int, error)) (flo
 	}
 	for t1 := lo; t1+lmMinGap <= hi; t1++ {
 		for t2 := t1 + lmMinGap; t2 <= hi; t2++ {
-			if s, _, err := f([]int{t1, t2}); err == nil && s < best {
+			s, _, err := f([]int{t1, t2})
+			if IsExactFit(err) {
+				return math.NaN(), []int{t1, t2}
+			}
+			if err == nil && s < best {
 				best, arg = s, []int{t1, t2}
 			}
 		}
@@ -448,5 +467,72 @@ func TestLMErrors(t *testing.T) {
 				t.Errorf("%s %s: got %v, want %v", id, c.name, err, c.want)
 			}
 		}
+	}
+}
+
+// TestExactFitLMTwins checks, candidate by candidate on noiseless series,
+// that the fast LM (ls1) and ADF-type (lp, cmr*) statistics and their
+// brute-force twins agree on the exact-fit rule (ExactFitTol): both report
+// an exact fit, or both give the same statistic (common practice, no source).
+func TestExactFitLMTwins(t *testing.T) {
+	const n = 80
+	step, alt, near := make([]float64, n), make([]float64, n), make([]float64, n)
+	for i := range n {
+		step[i] = 0.25
+		if i >= 40 {
+			step[i] = 1
+		}
+		alt[i] = float64(i % 2)
+		near[i] = step[i] + 1e-3*math.Sin(1.7*float64(i))
+	}
+	exact, ok := 0, 0
+	check := func(name string, tb int, fs float64, fk int, ferr error, bs float64, bk int, berr error) {
+		t.Helper()
+		switch {
+		case IsExactFit(ferr) != IsExactFit(berr):
+			t.Errorf("%s TB=%d: fast %v, brute %v", name, tb, ferr, berr)
+		case IsExactFit(ferr):
+			exact++
+		case ferr == nil && berr == nil:
+			ok++
+			if fk != bk || !lmClose(fs, bs, 1e-7) {
+				t.Errorf("%s TB=%d: fast %.10g (k=%d), brute %.10g (k=%d)", name, tb, fs, fk, bs, bk)
+			}
+		}
+	}
+	for _, s := range []struct {
+		name string
+		y    []float64
+	}{{"step", step}, {"alternating", alt}, {"near-step", near}} {
+		for _, spec := range []lmLagSpec{{core.LagFixed, 0}, {core.LagFixed, 2}, {core.LagTSig, 3}} {
+			var w lmWork
+			w.setup(s.y, spec.k)
+			m := lmModel{nb: 1}
+			for tb := 12; tb <= 68; tb++ {
+				fs, fk, _, ferr := w.lmStat(m, []int{tb}, spec)
+				bs, bk, berr := lmBrute(s.y, m, []int{tb}, spec)
+				check(s.name+"/ls1", tb, fs, fk, ferr, bs, bk, berr)
+			}
+			for _, id := range []string{"lp", "cmrio1", "cmrao1"} {
+				a, err := adfTestOf(id, &core.Config{})
+				if err != nil {
+					t.Fatal(err)
+				}
+				var aw adfWork
+				aw.setup(s.y, spec.k)
+				for tb := 12; tb <= 68; tb++ {
+					tbs := []int{tb}
+					if a.nb == 2 { // lp has two breaks: (TB1, TB2) = (tb-8, tb-1)
+						tbs = []int{tb - 8, tb - 1}
+					}
+					fs, fk, _, ferr := aw.stat(a, tbs, spec)
+					bs, bk, berr := adfBrute(s.y, a, tbs, spec)
+					check(s.name+"/"+id, tb, fs, fk, ferr, bs, bk, berr)
+				}
+			}
+		}
+	}
+	if exact == 0 || ok == 0 {
+		t.Errorf("exact fits %d, statistics %d: the cases must exercise both", exact, ok)
 	}
 }

@@ -81,7 +81,7 @@ func (w *aoSearcher) prepare(y []float64) {
 
 // detrend runs step 1 at tb, writes ỹ_t into w.res[1..T] and returns the
 // t-ratios of θ and γ (NaN when absent); ok is false for a singular design.
-func (w *aoSearcher) detrend(terms Terms, tb int) (tLevel, tSlope float64, ok bool) {
+func (w *aoSearcher) detrend(terms Terms, tb int) (tLevel, tSlope float64, st fitStatus) {
 	T := w.T
 	m := tb + 1
 	ftb := (float64(tb) - float64(T+1)/2) / float64(T)
@@ -113,8 +113,12 @@ func (w *aoSearcher) detrend(terms Terms, tb int) (tLevel, tSlope float64, ok bo
 	}
 	nr.N = T
 	ssr, err := nr.Solve()
-	if err != nil || !(ssr > 0) {
-		return 0, 0, false
+	if err != nil {
+		return 0, 0, fitSkip
+	}
+	if ssr <= ExactFitTol*nr.YY {
+		// y is exactly a broken trend: the residuals are rounding noise.
+		return 0, 0, fitExact
 	}
 	c := nr.Coef
 	for t := 1; t <= T; t++ {
@@ -137,7 +141,7 @@ func (w *aoSearcher) detrend(terms Terms, tb int) (tLevel, tSlope float64, ok bo
 	if iDT >= 0 {
 		tSlope = c[iDT] / math.Sqrt(s2*nr.InvDiag(iDT))
 	}
-	return tLevel, tSlope, true
+	return tLevel, tSlope, fitOK
 }
 
 // cross returns a cross-product over t = 1..T of the step-1 columns
@@ -273,10 +277,10 @@ func (w *aoSearcher) system(a, b []float64, codes []int, s, tb int) float64 {
 }
 
 // at runs both steps at tb.
-func (w *aoSearcher) at(spec *Spec, tb int) (Candidate, bool) {
-	tl, ts, ok := w.detrend(spec.Terms, tb)
-	if !ok {
-		return Candidate{}, false
+func (w *aoSearcher) at(spec *Spec, tb int) (Candidate, fitStatus) {
+	tl, ts, st := w.detrend(spec.Terms, tb)
+	if st != fitOK {
+		return Candidate{}, st
 	}
 	dummies := spec.Terms.Level
 	codes := w.codes
@@ -295,7 +299,7 @@ func (w *aoSearcher) at(spec *Spec, tb int) (Candidate, bool) {
 			per, i0 = 2, 1
 		}
 		if rank <= i0 {
-			return Candidate{}, false
+			return Candidate{}, fitSkip
 		}
 		kTop := min((rank-1-i0)/per, kk)
 		n := float64(w.T - kk - 1)
@@ -317,8 +321,8 @@ func (w *aoSearcher) at(spec *Spec, tb int) (Candidate, bool) {
 						ssr -= z[j] * z[j]
 					}
 				}
-				if !(ssr > 0) {
-					break
+				if ssr <= ExactFitTol*yy {
+					return Candidate{}, fitExact
 				}
 				if ic := math.Log(ssr/n) + pen*float64(i0+per*kc+1)/n; ic < best {
 					best, k = ic, kc
@@ -328,6 +332,11 @@ func (w *aoSearcher) at(spec *Spec, tb int) (Candidate, bool) {
 			ssr := yy
 			for j := 0; j <= i0+per*kTop; j++ {
 				ssr -= z[j] * z[j]
+			}
+			if ssr <= ExactFitTol*yy {
+				// The largest order fits exactly, hence (nested) the t-ratios
+				// of the orders tested first are not statistics.
+				return Candidate{}, fitExact
 			}
 			for kc := kTop; kc >= 1; kc-- {
 				i := i0 + per*kc
@@ -351,15 +360,18 @@ func (w *aoSearcher) at(spec *Spec, tb int) (Candidate, bool) {
 	nr.N = w.T - k - 1
 	ssr, err := nr.Solve()
 	df := float64(nr.N - K)
-	if err != nil || df <= 0 || !(ssr > 0) {
-		return Candidate{}, false
+	if err != nil || df <= 0 {
+		return Candidate{}, fitSkip
+	}
+	if ssr <= ExactFitTol*nr.YY {
+		return Candidate{}, fitExact
 	}
 	tA := nr.Coef[K-1] / math.Sqrt(ssr/df*nr.InvDiag(K-1))
 	if math.IsNaN(tA) || math.IsInf(tA, 0) {
-		return Candidate{}, false
+		return Candidate{}, fitSkip
 	}
 	return Candidate{TB: tb, Lags: k, NObs: nr.N, Alpha: 1 + nr.Coef[K-1], TAlpha: tA,
-		TLevel: tl, TSlope: ts, TDummy: math.NaN()}, true
+		TLevel: tl, TSlope: ts, TDummy: math.NaN()}, fitOK
 }
 
 // search runs the AO search over the candidates of spec (TB >= kmax+2).
@@ -373,9 +385,14 @@ func (w *aoSearcher) search(y []float64, spec *Spec, path bool) (Candidate, []Ca
 		return best, nil, core.Errorf("", core.ErrTooShort, "no break candidate with T=%d and %d lags (first %d, last %d)", T, spec.kmax(), lo, hi)
 	}
 	bestScore := math.Inf(1)
+	var exact exactSet
 	for tb := lo; tb <= hi; tb++ {
-		c, ok := w.at(spec, tb)
-		if !ok {
+		c, st := w.at(spec, tb)
+		if st == fitExact {
+			exact.add([]int{tb})
+			continue
+		}
+		if st != fitOK {
 			continue
 		}
 		if path {
@@ -391,6 +408,9 @@ func (w *aoSearcher) search(y []float64, spec *Spec, path bool) (Candidate, []Ca
 		if score < bestScore {
 			bestScore, best = score, c
 		}
+	}
+	if err := exact.err(); err != nil {
+		return Candidate{TB: -1}, nil, err
 	}
 	if best.TB < 0 {
 		return best, nil, core.Errorf("", core.ErrSingular, "the regression is singular at every break candidate")

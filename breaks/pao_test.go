@@ -13,14 +13,19 @@ import (
 // paoBruteCandidate is the brute-force twin of aoSearcher.at: step 1 by
 // core.LS on the raw series with DeterministicColumns (t = 1..T, DT = t-TB),
 // step 2 by core.LS on explicitly built columns, same lag rule.
-func paoBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
+func paoBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, fitStatus) {
 	T := len(y)
 	var ls core.LS
 	terms := Terms{Level: spec.Terms.Level, Slope: spec.Terms.Slope}
 	X := DeterministicColumns(nil, core.TrendLinear, terms, tb, 1, T)
 	f1, err := ls.Fit(X, y)
 	if err != nil {
-		return Candidate{}, false
+		return Candidate{}, fitSkip
+	}
+	// Exact-fit rule of step 1 (a levels regression with an intercept):
+	// the centred sum of squares of y is the scale.
+	if f1.SSR <= ExactFitTol*centredSS(y) {
+		return Candidate{}, fitExact
 	}
 	c := Candidate{TB: tb, TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
 	j := 2
@@ -88,6 +93,9 @@ func paoBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
 				if err != nil {
 					break
 				}
+				if f.SSR <= ExactFitTol*sumSq(dy) {
+					return Candidate{}, fitExact
+				}
 				if ic := math.Log(f.SSR/n) + pen*float64(len(X))/n; ic < best {
 					best, k = ic, kc
 				}
@@ -96,6 +104,9 @@ func paoBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
 			for kc := kk; kc >= 1; kc-- {
 				X, dy := design(kc, kk+2, true)
 				f, err := ls.Fit(X, dy)
+				if err == nil && f.SSR <= ExactFitTol*sumSq(dy) {
+					return Candidate{}, fitExact
+				}
 				if err == nil && math.Abs(f.TStat(len(X)-1)) > TSigCritical {
 					k = kc
 					break
@@ -106,12 +117,15 @@ func paoBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
 	X2, dy := design(k, k+2, false)
 	f2, err := ls.Fit(X2, dy)
 	if err != nil {
-		return Candidate{}, false
+		return Candidate{}, fitSkip
+	}
+	if f2.SSR <= ExactFitTol*sumSq(dy) {
+		return Candidate{}, fitExact
 	}
 	K := len(X2)
 	c.Lags, c.NObs = k, f2.N
 	c.Alpha, c.TAlpha = 1+f2.Coef[K-1], f2.TStat(K-1)
-	return c, true
+	return c, fitOK
 }
 
 // TestPAOMatchesBrute checks the AO search (suffix-sum detrending, prefix
@@ -155,8 +169,8 @@ func TestPAOMatchesBrute(t *testing.T) {
 				t.Fatalf("path has %d candidates, want %d", len(path), hi-lo+1)
 			}
 			for i, p := range path {
-				want, ok := paoBruteCandidate(y, &spec, p.TB)
-				if !ok {
+				want, st := paoBruteCandidate(y, &spec, p.TB)
+				if st != fitOK {
 					t.Fatalf("brute failed at %d", p.TB)
 				}
 				if p.Lags != want.Lags || !ioClose9(p.TAlpha, want.TAlpha) || !ioClose9(p.TLevel, want.TLevel) ||

@@ -1,7 +1,10 @@
 package breaks
 
 import (
+	"errors"
+	"fmt"
 	"math"
+	"strings"
 
 	"github.com/rootshift/rootshift/core"
 )
@@ -31,6 +34,109 @@ import (
 // and the remaining (nb+1)-square system is solved by core.Normal. Lag
 // selection reads every order from one factorisation, the orders being
 // leading blocks. Nothing is allocated in the candidate loop.
+
+// ExactFitTol is the exact-fit rule shared by every break search of this
+// package (common practice, no source): a regression whose sum of squared
+// residuals satisfies
+//
+//	SSR <= ExactFitTol * Σ_t dep_t²
+//
+// (dep the dependent variable over the regression sample, uncentred, so the
+// rule also holds for regressions without an intercept and for a constant
+// dependent variable) fits the data exactly up to rounding: its t-ratios are
+// ±Inf or 0/0, not statistics. Cross-product fast paths cannot resolve an
+// SSR below about 1e-14 of Σ dep² anyway, so the fast paths and their
+// brute-force twins classify a candidate the same way. An exact fit at any
+// break candidate makes the whole search fail with an error from
+// ExactFitError (wrapping core.ErrNoEstimate) rather than skipping the
+// candidate: skipping it would silently move the break date (a noiseless
+// step at TB = 60 would be reported at 59).
+const ExactFitTol = 1e-12
+
+// errExactFit marks a regression that fits the data exactly; searches turn
+// it into ExactFitError with the break dates.
+var errExactFit = fmt.Errorf("%w: the regression fits the data exactly", core.ErrNoEstimate)
+
+// ExactFitError is the error of a break search that met an exact fit at
+// break dates tbs (see ExactFitTol); callers attach the test id with
+// WrapError. It wraps core.ErrNoEstimate.
+func ExactFitError(tbs ...int) error {
+	return &core.Error{Err: fmt.Errorf("%w at break date %s (SSR <= %g x the sum of squares of the dependent variable): "+
+		"the series is, up to rounding, a deterministic level/trend path with that break, so no unit-root statistic is meaningful",
+		errExactFit, datesText(tbs), ExactFitTol)}
+}
+
+// exactSet collects the candidates of a search that fit exactly (the first
+// exactShow of them, and their number), so that the error names them all.
+type exactSet struct {
+	n     int
+	dates [][]int
+}
+
+const exactShow = 8
+
+func (e *exactSet) add(tbs []int) {
+	e.n++
+	if len(e.dates) < exactShow {
+		e.dates = append(e.dates, append([]int(nil), tbs...))
+	}
+}
+
+// err is nil when no candidate fitted exactly, else the ExactFitError
+// naming the candidates.
+func (e *exactSet) err() error {
+	if e.n == 0 {
+		return nil
+	}
+	if e.n == 1 {
+		return ExactFitError(e.dates[0]...)
+	}
+	var b strings.Builder
+	for i, d := range e.dates {
+		if i > 0 {
+			b.WriteString(", ")
+		}
+		if len(d) > 1 {
+			b.WriteString("(" + datesText(d) + ")")
+		} else {
+			b.WriteString(datesText(d))
+		}
+	}
+	if e.n > len(e.dates) {
+		fmt.Fprintf(&b, ", ... (%d candidates in all;", e.n)
+	} else {
+		fmt.Fprintf(&b, " (%d candidates;", e.n)
+	}
+	return &core.Error{Err: fmt.Errorf("%w at break dates %s SSR <= %g x the sum of squares of the dependent variable): "+
+		"the series is, up to rounding, a deterministic level/trend path with such a break, so no unit-root statistic is meaningful",
+		errExactFit, b.String(), ExactFitTol)}
+}
+
+// IsExactFit reports whether err comes from an exact fit (see ExactFitTol).
+func IsExactFit(err error) bool { return errors.Is(err, errExactFit) }
+
+func datesText(tbs []int) string {
+	switch len(tbs) {
+	case 0:
+		return "(none)"
+	case 1:
+		return fmt.Sprintf("TB=%d", tbs[0])
+	}
+	s := fmt.Sprintf("TB1=%d", tbs[0])
+	for i, tb := range tbs[1:] {
+		s += fmt.Sprintf(", TB%d=%d", i+2, tb)
+	}
+	return s
+}
+
+// fitStatus is the outcome of one candidate regression.
+type fitStatus int8
+
+const (
+	fitOK    fitStatus = iota
+	fitSkip            // singular design: the candidate is skipped
+	fitExact           // exact fit (ExactFitTol): the search fails
+)
 
 // BreakRule is how a search picks the break date among the candidates.
 type BreakRule int
@@ -409,7 +515,9 @@ func (spec *Spec) kmax() int {
 // skipped (the regression sample must contain both regimes); candidates
 // whose design is singular are skipped. Errors wrap core.ErrTooShort when no
 // candidate is left and core.ErrSingular when every candidate is singular;
-// y must be finite and non-constant (checked by the callers).
+// an exact fit (ExactFitTol) at any candidate, in the final regression or in
+// a lag-selection regression, stops the search with ExactFitError. y must be
+// finite and non-constant (checked by the callers).
 func (w *Searcher) Search(y []float64, spec *Spec, path bool) (Candidate, []Candidate, error) {
 	kk := spec.kmax()
 	w.prepare(y, kk)
@@ -426,9 +534,14 @@ func (w *Searcher) search(spec *Spec, path bool) (Candidate, []Candidate, error)
 	}
 	w.factors(spec)
 	bestScore := math.Inf(1)
+	var exact exactSet
 	for tb := lo; tb <= hi; tb++ {
-		c, ok := w.at(spec, tb)
-		if !ok {
+		c, st := w.at(spec, tb)
+		if st == fitExact {
+			exact.add([]int{tb})
+			continue
+		}
+		if st != fitOK {
 			continue
 		}
 		if path {
@@ -447,6 +560,9 @@ func (w *Searcher) search(spec *Spec, path bool) (Candidate, []Candidate, error)
 			bestScore, best = score, c
 		}
 	}
+	if err := exact.err(); err != nil {
+		return Candidate{TB: -1}, nil, err
+	}
 	if best.TB < 0 {
 		return best, nil, core.Errorf("", core.ErrSingular, "the regression is singular at every break candidate")
 	}
@@ -457,14 +573,14 @@ func (w *Searcher) search(spec *Spec, path bool) (Candidate, []Candidate, error)
 }
 
 // at estimates the regression at tb with the spec's lag rule.
-func (w *Searcher) at(spec *Spec, tb int) (Candidate, bool) {
+func (w *Searcher) at(spec *Spec, tb int) (Candidate, fitStatus) {
 	nb := w.breakVectors(spec, tb)
 	k := spec.Lags
 	if spec.LagRule != core.LagFixed {
-		var ok bool
-		k, ok = w.selectLag(spec, nb)
-		if !ok {
-			return Candidate{}, false
+		var st fitStatus
+		k, st = w.selectLag(spec, nb)
+		if st != fitOK {
+			return Candidate{}, st
 		}
 	}
 	return w.final(spec, tb, k, nb)
@@ -475,10 +591,11 @@ func (w *Searcher) at(spec *Spec, tb int) (Candidate, bool) {
 // residualised column x (xb: its cross-products with the breaks, xx its
 // norm, xy its cross-product with Δy; yy is the residual Δy'Δy). K is the
 // total number of regressors of the full regression (for the degrees of
-// freedom), n its number of observations. It returns the t-ratio of x and
-// the SSR and leaves the solution in w.nrm; ok is false for a singular
-// system.
-func (w *Searcher) smallSystem(nb int, xb []float64, xx, xy, yy float64, n, K int) (t, ssr float64, ok bool) {
+// freedom), n its number of observations, dd the raw Δy'Δy over the sample
+// (the scale of the exact-fit rule). It returns the t-ratio of x and the SSR
+// and leaves the solution in w.nrm; st is fitSkip for a singular system and
+// fitExact for an exact fit.
+func (w *Searcher) smallSystem(nb int, xb []float64, xx, xy, yy, dd float64, n, K int) (t, ssr float64, st fitStatus) {
 	m := &w.nrm
 	q := nb + 1
 	m.Reset(q)
@@ -489,7 +606,7 @@ func (w *Searcher) smallSystem(nb int, xb []float64, xx, xy, yy float64, n, K in
 		m.B[i] = w.sby[i]
 		// A break column (almost) in the span of P is a singular candidate.
 		if !(w.sbb[i*3+i] > 1e-10*w.bb[i*3+i]) {
-			return 0, 0, false
+			return 0, 0, fitSkip
 		}
 	}
 	for j := 0; j < nb; j++ {
@@ -500,23 +617,30 @@ func (w *Searcher) smallSystem(nb int, xb []float64, xx, xy, yy float64, n, K in
 	m.YY, m.N = yy, n
 	ssr, err := m.Solve()
 	df := float64(n - K)
-	if err != nil || df <= 0 || !(ssr > 0) {
-		return 0, 0, false
+	if err != nil || df <= 0 {
+		return 0, 0, fitSkip
+	}
+	if ssr <= ExactFitTol*dd {
+		return 0, 0, fitExact
 	}
 	t = m.Coef[nb] / math.Sqrt(ssr/df*m.InvDiag(nb))
-	return t, ssr, !math.IsNaN(t) && !math.IsInf(t, 0)
+	if math.IsNaN(t) || math.IsInf(t, 0) {
+		return 0, 0, fitSkip
+	}
+	return t, ssr, fitOK
 }
 
 // tLast returns the squared t-ratio of the extra column x in the regression
 // of the residualised Δy on the residualised [B, x] (w.sbb, w.sby, w.xb;
 // x'x = xx, x'Δy = xy, Δy'Δy = yy) with df degrees of freedom, the sign of
-// its coefficient and the SSR. It writes out an LDL' factorisation of the
+// its coefficient and the SSR; dd is the raw Δy'Δy over the sample (the
+// scale of the exact-fit rule). It writes out an LDL' factorisation of the
 // (nb+1)-square system with x last (no square roots), the lag-selection
-// twin of smallSystem (which uses core.Normal); ok is false for a singular
-// system.
-func (w *Searcher) tLast(nb int, xx, xy, yy float64, df int) (t2, sign, ssr float64, ok bool) {
+// twin of smallSystem (which uses core.Normal); st is fitSkip for a
+// singular system and fitExact for an exact fit.
+func (w *Searcher) tLast(nb int, xx, xy, yy, dd float64, df int) (t2, sign, ssr float64, st fitStatus) {
 	if df <= 0 {
-		return 0, 0, 0, false
+		return 0, 0, 0, fitSkip
 	}
 	var l [9]float64
 	var dg, ux, uy [3]float64
@@ -524,14 +648,14 @@ func (w *Searcher) tLast(nb int, xx, xy, yy float64, df int) (t2, sign, ssr floa
 	for i := 0; i < nb; i++ {
 		sii := w.sbb[i*3+i]
 		if !(sii > 1e-10*w.bb[i*3+i]) {
-			return 0, 0, 0, false
+			return 0, 0, 0, fitSkip
 		}
 		v := sii
 		for j := 0; j < i; j++ {
 			v -= l[i*3+j] * l[i*3+j] * dg[j]
 		}
 		if !(v > 1e-12*sii) {
-			return 0, 0, 0, false
+			return 0, 0, 0, fitSkip
 		}
 		dg[i] = v
 		for r := i + 1; r < nb; r++ {
@@ -553,19 +677,22 @@ func (w *Searcher) tLast(nb int, xx, xy, yy float64, df int) (t2, sign, ssr floa
 	}
 	px := xx - qxx
 	if !(px > 1e-12*xx) {
-		return 0, 0, 0, false
+		return 0, 0, 0, fitSkip
 	}
 	zx := xy - qxy
 	ssr = yy - qyy - zx*zx/px
-	if !(ssr > 0) {
-		return 0, 0, 0, false
+	if ssr <= ExactFitTol*dd {
+		return 0, 0, 0, fitExact
+	}
+	if math.IsNaN(ssr) {
+		return 0, 0, 0, fitSkip
 	}
 	t2 = zx * zx / px / (ssr / float64(df))
 	sign = 1
 	if zx < 0 {
 		sign = -1
 	}
-	return t2, sign, ssr, true
+	return t2, sign, ssr, fitOK
 }
 
 // selectLag chooses k in 0..kk on the common sample t = kk+2..T. The
@@ -575,13 +702,13 @@ func (w *Searcher) tLast(nb int, xx, xy, yy float64, df int) (t2, sign, ssr floa
 // columns against L gives all orders: for order k the last lag (column
 // i-1 of P) is the extra column of a small system whose other columns are
 // the breaks residualised on the first i-1 columns of P.
-func (w *Searcher) selectLag(spec *Spec, nb int) (int, bool) {
+func (w *Searcher) selectLag(spec *Spec, nb int) (int, fitStatus) {
 	f := &w.sel
 	kk := w.kk
 	nd := len(f.codes) - 1 - kk
 	i0 := nd + 1 // size of the order-0 block
 	if f.rank < i0 {
-		return 0, false
+		return 0, fitSkip
 	}
 	kTop := min(f.rank-i0, kk)
 	w.residualise(f, nb, i0+kTop)
@@ -622,10 +749,14 @@ func (w *Searcher) selectLag(spec *Spec, nb int) (int, bool) {
 		for i := 0; i < nb; i++ {
 			w.xb[i] = w.wb[i*w.maxK+r] * lrr
 		}
-		t2, _, ssr, ok := w.tLast(nb, lrr*lrr, f.ry[r]*lrr, yy, n-(r+1+nb))
-		if !ok {
+		t2, _, ssr, st := w.tLast(nb, lrr*lrr, f.ry[r]*lrr, yy, f.yy, n-(r+1+nb))
+		if st == fitExact {
+			// Every larger order fits exactly too (nested, same sample).
+			return k, fitExact
+		}
+		if st != fitOK {
 			if k == 0 {
-				return 0, false
+				return 0, fitSkip
 			}
 			break
 		}
@@ -638,17 +769,17 @@ func (w *Searcher) selectLag(spec *Spec, nb int) (int, bool) {
 		}
 		add(r)
 	}
-	return best, true
+	return best, fitOK
 }
 
 // final estimates the k-lag regression at tb on t = k+2..T: P = [const,
 // trend, lags 1..k] is factored once per series, y_{t-1} is the target
 // column, and the breaks are residualised on P.
-func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, bool) {
+func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
 	f := &w.fin[k]
 	K := len(f.codes)
 	if f.rank < K {
-		return Candidate{}, false
+		return Candidate{}, fitSkip
 	}
 	w.residualise(f, nb, K)
 	np := w.p + 1
@@ -673,13 +804,13 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, bool) {
 	Ktot := K + nb + 1
 	if spec.OnlyTAlpha && spec.Rule == MinTAlpha {
 		// Statistic only: t_α from the written-out factorisation.
-		t2, sign, _, ok := w.tLast(nb, f.xxRes, f.xyRes, f.yyRes, n-Ktot)
+		t2, sign, _, st := w.tLast(nb, f.xxRes, f.xyRes, f.yyRes, f.yy, n-Ktot)
 		return Candidate{TB: tb, Lags: k, NObs: n, Alpha: math.NaN(), TAlpha: sign * math.Sqrt(t2),
-			TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}, ok
+			TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}, st
 	}
-	tA, ssr, ok := w.smallSystem(nb, w.xb[:nb], f.xxRes, f.xyRes, f.yyRes, n, Ktot)
-	if !ok {
-		return Candidate{}, false
+	tA, ssr, st := w.smallSystem(nb, w.xb[:nb], f.xxRes, f.xyRes, f.yyRes, f.yy, n, Ktot)
+	if st != fitOK {
+		return Candidate{}, st
 	}
 	m := &w.nrm
 	c := Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + m.Coef[nb], TAlpha: tA,
@@ -696,7 +827,7 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, bool) {
 			c.TDummy = t
 		}
 	}
-	return c, true
+	return c, fitOK
 }
 
 // cholPrefix factors the Jacobi-scaled K×K matrix D A D (lower triangle of

@@ -1,9 +1,12 @@
 package breaks
 
 import (
+	"context"
+	"errors"
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"github.com/rootshift/rootshift/core"
@@ -14,7 +17,7 @@ import (
 // trend t = 1..T and DT_t = t - TB) and fitted with core.LS, with the same lag
 // rule (orders compared on the common sample t = kmax+2..T, the chosen order
 // re-estimated on t = k+2..T).
-func ioBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
+func ioBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, fitStatus) {
 	T := len(y)
 	kk := spec.kmax()
 	var ls core.LS
@@ -66,6 +69,9 @@ func ioBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
 				if err != nil {
 					break
 				}
+				if f.SSR <= ExactFitTol*sumSq(dy) {
+					return Candidate{}, fitExact
+				}
 				ic := math.Log(f.SSR/n) + pen*float64(len(X))/n
 				if ic < best {
 					best, k = ic, kc
@@ -78,6 +84,9 @@ func ioBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
 				if err != nil {
 					continue
 				}
+				if f.SSR <= ExactFitTol*sumSq(dy) {
+					return Candidate{}, fitExact
+				}
 				if math.Abs(f.TStat(len(X)-1)) > TSigCritical {
 					k = kc
 					break
@@ -88,7 +97,10 @@ func ioBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
 	X, dy := design(k, k+2, false)
 	f, err := ls.Fit(X, dy)
 	if err != nil {
-		return Candidate{}, false
+		return Candidate{}, fitSkip
+	}
+	if f.SSR <= ExactFitTol*sumSq(dy) {
+		return Candidate{}, fitExact
 	}
 	K := len(X)
 	c := Candidate{TB: tb, Lags: k, NObs: f.N, Alpha: 1 + f.Coef[K-1], TAlpha: f.TStat(K - 1),
@@ -108,7 +120,31 @@ func ioBruteCandidate(y []float64, spec *Spec, tb int) (Candidate, bool) {
 	if spec.Terms.Dummy {
 		c.TDummy = f.TStat(j)
 	}
-	return c, true
+	return c, fitOK
+}
+
+// sumSq is Σ v², the scale of the exact-fit rule (ExactFitTol).
+func sumSq(v []float64) float64 {
+	s := 0.0
+	for _, x := range v {
+		s += x * x
+	}
+	return s
+}
+
+// centredSS is Σ (v - mean)², the exact-fit scale of a levels regression
+// with an intercept.
+func centredSS(v []float64) float64 {
+	m := 0.0
+	for _, x := range v {
+		m += x
+	}
+	m /= float64(len(v))
+	s := 0.0
+	for _, x := range v {
+		s += (x - m) * (x - m)
+	}
+	return s
 }
 
 // ioBruteSearch is the brute-force twin of Searcher.Search.
@@ -118,9 +154,14 @@ func ioBruteSearch(y []float64, spec *Spec) (Candidate, []Candidate, error) {
 	best := Candidate{TB: -1}
 	bestScore := math.Inf(1)
 	var path []Candidate
+	var exact exactSet
 	for tb := lo; tb <= hi; tb++ {
-		c, ok := ioBruteCandidate(y, spec, tb)
-		if !ok {
+		c, st := ioBruteCandidate(y, spec, tb)
+		if st == fitExact {
+			exact.add([]int{tb})
+			continue
+		}
+		if st != fitOK {
 			continue
 		}
 		path = append(path, c)
@@ -134,6 +175,9 @@ func ioBruteSearch(y []float64, spec *Spec) (Candidate, []Candidate, error) {
 		if score < bestScore {
 			bestScore, best = score, c
 		}
+	}
+	if err := exact.err(); err != nil {
+		return Candidate{TB: -1}, nil, err
 	}
 	if best.TB < 0 {
 		return best, nil, core.ErrSingular
@@ -279,6 +323,167 @@ func TestSearchMatchesBrute(t *testing.T) {
 					}
 				}
 			})
+		}
+	}
+}
+
+// TestExactFitSeries runs every break test on noiseless series (common
+// practice, no source): a 0/1 alternating series (T = 120 and T = 60), a step (0.25 for 60
+// observations, then 1.00 for 60), a linear trend and a constant. Each test
+// must return an error or a finite statistic with |stat| <= 1e6; an exact
+// fit must be reported as such (ExactFitError), never skipped so that the
+// break date moves.
+func TestExactFitSeries(t *testing.T) {
+	const n = 120
+	alt, step, trend, cons := make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	for i := range n {
+		alt[i] = float64(i % 2)
+		step[i] = 0.25
+		if i >= 60 {
+			step[i] = 1
+		}
+		trend[i] = 2 + 0.5*float64(i+1)
+		cons[i] = 3
+	}
+	ids := []string{"p89", "za", "pio", "pao", "ls1", "ls2", "lp", "cmrao1", "cmrio1", "cmrao2", "cmrio2", "sadf", "gsadf"}
+	for _, s := range []struct {
+		name string
+		y    []float64
+	}{{"alternating", alt}, {"alternating60", alt[:60]}, {"step", step}, {"trend", trend}, {"constant", cons}} {
+		for _, id := range ids {
+			t.Run(s.name+"/"+id, func(t *testing.T) {
+				info, err := core.Lookup(id)
+				if err != nil {
+					t.Fatal(err)
+				}
+				r, err := info.Run(context.Background(), s.y, &core.Config{BreakIndex: 60})
+				if err != nil {
+					var ce *core.Error
+					if !errors.As(err, &ce) || ce.Test != id {
+						t.Errorf("error %v is not a *core.Error of %s", err, id)
+					}
+					if s.name == "constant" && !errors.Is(err, core.ErrConstant) {
+						t.Errorf("constant series: %v", err)
+					}
+					return
+				}
+				if r.Statistic == nil || math.IsNaN(*r.Statistic) || math.Abs(*r.Statistic) > 1e6 {
+					t.Fatalf("statistic %v reported as valid", r.Statistic)
+				}
+				if s.name == "step" {
+					// A statistic on the noiseless step may only come from a
+					// search that met no exact fit: at TB = 60 the IO and
+					// LM regressions fit exactly, so they must fail.
+					switch id {
+					case "za", "pio", "ls1", "cmrio1":
+						t.Errorf("step: %s reported %v at %v instead of the exact-fit error", id, *r.Statistic, r.Breaks)
+					}
+				}
+			})
+		}
+	}
+}
+
+// TestExactFitStepDate checks that the exact fit of a noiseless step at
+// TB = 60 is reported as an error naming an exact-fit break date and
+// wrapping core.ErrNoEstimate, for the fast search and its brute-force twin
+// alike (common practice, no source).
+func TestExactFitStepDate(t *testing.T) {
+	y := make([]float64, 120)
+	for i := range y {
+		y[i] = 0.25
+		if i >= 60 {
+			y[i] = 1
+		}
+	}
+	spec := Spec{Trend: core.TrendLinear, Terms: Terms{Level: true}, LagRule: core.LagFixed, Lags: 0, Lo: 18, Hi: 102}
+	var w Searcher
+	_, _, err := w.Search(y, &spec, false)
+	if !IsExactFit(err) || !errors.Is(err, core.ErrNoEstimate) || !strings.Contains(err.Error(), "TB=60") {
+		t.Errorf("fast search: %v", err)
+	}
+	_, _, err = ioBruteSearch(y, &spec)
+	if !IsExactFit(err) || !strings.Contains(err.Error(), "TB=60") {
+		t.Errorf("brute search: %v", err)
+	}
+	info, _ := core.Lookup("za")
+	if _, err := info.Run(context.Background(), y, &core.Config{}); !IsExactFit(err) || !strings.Contains(err.Error(), "TB=60") {
+		t.Errorf("za: %v", err)
+	}
+	info, _ = core.Lookup("ls1")
+	if _, err := info.Run(context.Background(), y, &core.Config{}); !IsExactFit(err) || !strings.Contains(err.Error(), "TB=60") {
+		t.Errorf("ls1: %v", err)
+	}
+}
+
+// TestExactFitTwins checks that the fast searches (IO and AO) and their
+// brute-force twins classify noiseless series alike: both fail with an
+// exact-fit error naming the same candidates, or both succeed (common
+// practice, no source).
+func TestExactFitTwins(t *testing.T) {
+	const n = 100
+	alt, step, ar, near := make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	prev := 1.0
+	for i := range n {
+		alt[i] = float64(i % 2)
+		step[i] = 0.25
+		if i >= 50 {
+			step[i] = 1
+		}
+		// A noiseless AR(1) with a level shift: exactly model A at TB = 50.
+		prev = 0.5*prev + indicator(i+1 > 50)
+		ar[i] = prev
+		// The step with a small deterministic wiggle: not an exact fit.
+		near[i] = step[i] + 1e-3*math.Sin(1.7*float64(i))
+	}
+	var w Searcher
+	var ao aoSearcher
+	exactIO, exactAO, okIO := 0, 0, 0
+	defer func() {
+		// The cases must exercise both outcomes.
+		if exactIO == 0 || exactAO == 0 || okIO == 0 {
+			t.Errorf("exact fits: IO %d, AO %d; IO statistics %d", exactIO, exactAO, okIO)
+		}
+	}()
+	for _, s := range []struct {
+		name string
+		y    []float64
+	}{{"alternating", alt}, {"step", step}, {"ar-shift", ar}, {"near-step", near}} {
+		for _, rule := range []core.LagRule{core.LagFixed, core.LagTSig, core.LagAIC} {
+			for _, terms := range []Terms{{Level: true}, {Level: true, Dummy: true}, {Level: true, Slope: true}} {
+				spec := Spec{Trend: core.TrendLinear, Terms: terms, LagRule: rule, Lags: 1, MaxLags: 3, Lo: 15, Hi: 85}
+				name := fmt.Sprintf("%s/%s/%+v", s.name, rule, terms)
+				got, _, gerr := w.Search(s.y, &spec, false)
+				want, _, werr := ioBruteSearch(s.y, &spec)
+				if IsExactFit(gerr) != IsExactFit(werr) || (gerr == nil) != (werr == nil) {
+					t.Errorf("%s: fast %v, brute %v", name, gerr, werr)
+				} else if IsExactFit(gerr) && gerr.Error() != werr.Error() {
+					t.Errorf("%s: fast %q, brute %q", name, gerr, werr)
+				} else if gerr == nil && got.TB != want.TB {
+					t.Errorf("%s: fast TB=%d, brute TB=%d", name, got.TB, want.TB)
+				}
+				if IsExactFit(gerr) {
+					exactIO++
+				} else if gerr == nil {
+					okIO++
+				}
+				if s.name == "ar-shift" && rule == core.LagFixed && terms.Dummy && !IsExactFit(gerr) {
+					t.Errorf("%s: the noiseless AR(1) fits model A exactly, got %v", name, gerr)
+				}
+				aoSpec := spec
+				aoSpec.Terms.Dummy = false
+				aoSpec.Terms = TermsOf(map[bool]core.Shift{true: core.ShiftBoth, false: core.ShiftLevel}[terms.Slope], true)
+				_, path, aerr := ao.search(s.y, &aoSpec, true)
+				if IsExactFit(aerr) {
+					exactAO++
+					continue
+				}
+				for _, c := range path {
+					if _, st := paoBruteCandidate(s.y, &aoSpec, c.TB); st == fitExact {
+						t.Errorf("%s: AO candidate %d fits exactly by brute force but the fast search accepted it", name, c.TB)
+					}
+				}
+			}
 		}
 	}
 }

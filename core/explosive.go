@@ -225,6 +225,11 @@ type explEngine struct {
 	pre            []float64 // (T+1)*m prefix sums: lower triangle of X'X, X'y, y'y
 	x              []float64
 	nrm            Normal
+	// Exact-fit windows since the last load: with an explosive coefficient
+	// (t = +Inf, which would be the supremum; the first at exactS..exactE)
+	// and otherwise (t = -Inf or 0/0, never the supremum).
+	exactUp, exactDown int
+	exactS, exactE     int
 }
 
 // setup sizes the engine for series of length T with p lags and trend tr.
@@ -259,6 +264,7 @@ func (g *explEngine) load(y []float64) error {
 	} else {
 		g.ys, _, _ = Standardize(g.ys, y)
 	}
+	g.exactUp, g.exactDown, g.exactS, g.exactE = 0, 0, 0, 0
 	ys, pre, x := g.ys, g.pre, g.x
 	for i := 0; i < (p+2)*m && i < len(pre); i++ {
 		pre[i] = 0
@@ -303,9 +309,19 @@ func (g *explEngine) load(y []float64) error {
 	return nil
 }
 
+// explExactTol is the exact-fit rule of a window regression: SSR <=
+// explExactTol * Σ Δy_t² over the window (uncentred; the cross-product SSR
+// cannot be resolved below about 1e-14 of it). explExactCoef is the smallest
+// coefficient on y_{t-1} (standardised units) that counts as explosive in an
+// exact fit; below it the t-ratio of an exact fit is 0/0.
+const (
+	explExactTol  = 1e-12
+	explExactCoef = 1e-8
+)
+
 // window returns ADF(s, e), the t-ratio of β for the window y_s..y_e
 // (1-based, inclusive), and false when it cannot be computed (singular
-// design or exact fit).
+// design or exact fit; exact fits are counted in g.exactUp/g.exactDown).
 func (g *explEngine) window(s, e int) (float64, bool) {
 	k, m := g.k, g.m
 	n := e - s - g.p
@@ -331,7 +347,21 @@ func (g *explEngine) window(s, e int) (float64, bool) {
 	nr.YY = hi[q] - lo[q]
 	nr.N = n
 	ssr, err := nr.Solve()
-	if err != nil || !(ssr > 1e-24*nr.YY) {
+	if err != nil {
+		return 0, false
+	}
+	if ssr <= explExactTol*nr.YY {
+		// Exact fit (common practice, no source): SSR <= 1e-12 Σ Δy² over
+		// the window. The t-ratio is ±Inf or 0/0; an explosive coefficient
+		// would make it +Inf, the supremum, and is recorded as such.
+		if nr.Coef[k-1] > explExactCoef {
+			g.exactUp++
+			if g.exactS == 0 {
+				g.exactS, g.exactE = s, e
+			}
+		} else {
+			g.exactDown++
+		}
 		return 0, false
 	}
 	v := ssr / float64(n-k) * nr.InvDiag(k-1)
@@ -343,6 +373,18 @@ func (g *explEngine) window(s, e int) (float64, bool) {
 		return 0, false
 	}
 	return t, true
+}
+
+// exactErr is the error of a scan that met an exact fit with an explosive
+// coefficient: that window's t-ratio is +Inf and would be the supremum, so
+// no finite statistic is correct.
+func (g *explEngine) exactErr(id string) error {
+	if g.exactUp == 0 {
+		return nil
+	}
+	return &Error{Test: id, Err: fmt.Errorf("%w: the regression fits the data exactly in %d window(s) with an explosive coefficient "+
+		"(first: observations %d-%d; SSR <= %g x the sum of squares of Δy): the t-ratio there is +Inf, so the supremum is not a meaningful statistic "+
+		"(the series is, up to rounding, a deterministic explosive path)", ErrNoEstimate, g.exactUp, g.exactS, g.exactE, explExactTol)}
 }
 
 // scan computes the forward sequence fwd[e-w] = ADF(1, e) and, when full,
@@ -447,6 +489,9 @@ func newExplStat(id string, T int, cfg *Config) StatFunc {
 			return 0, &Error{Test: id, Err: err}
 		}
 		s, gs, _, _ := g.scan(nil, w, full, nil, nil)
+		if err := g.exactErr(id); err != nil {
+			return 0, err
+		}
 		if full {
 			s = gs
 		}
@@ -732,6 +777,14 @@ func runExpl(ctx context.Context, id string, y []float64, cfg *Config) (*schema.
 	if full {
 		stat, seq, seqName = gsadf, bsd, "BSADF"
 	}
+	if err := g.exactErr(id); err != nil {
+		return nil, err
+	}
+	if math.IsNaN(stat) && g.exactDown > 0 {
+		return nil, &Error{Test: id, Err: fmt.Errorf("%w: the regression fits the data exactly in every window that is not singular "+
+			"(%d windows; SSR <= %g x the sum of squares of Δy): the series is, up to rounding, a deterministic path, so no unit-root statistic is meaningful",
+			ErrNoEstimate, g.exactDown, explExactTol)}
+	}
 	if math.IsNaN(stat) {
 		return nil, &Error{Test: id, Err: fmt.Errorf("%w: no window regression could be computed (singular or exact fit in every window)", ErrNoEstimate)}
 	}
@@ -761,6 +814,11 @@ func runExpl(ctx context.Context, id string, y []float64, cfg *Config) (*schema.
 	}
 	if fails > 0 {
 		res.Warnings = append(res.Warnings, fmt.Sprintf("%d window regressions could not be computed (singular design or exact fit) and were skipped", fails))
+	}
+	if g.exactDown > 0 {
+		res.Warnings = append(res.Warnings, fmt.Sprintf("%d of them fit the data exactly (SSR <= %g x the sum of squares of Δy) with a non-explosive "+
+			"coefficient, so their t-ratio is -Inf or undefined and could not be the supremum: the statistic is unaffected, but the series is deterministic in those windows",
+			g.exactDown, explExactTol))
 	}
 	// Critical values: table, automatic simulation, or the analyst's simulation.
 	useTable := sp.trend == TrendConstant && sp.defaultW

@@ -50,6 +50,13 @@ func explBrute(ls *LS, y []float64, s, e, p int, tr Trend) (float64, bool) {
 	if err != nil {
 		return 0, false
 	}
+	dd := 0.0
+	for _, v := range dep {
+		dd += v * v
+	}
+	if f.SSR <= explExactTol*dd { // the exact-fit rule of explEngine.window
+		return 0, false
+	}
 	v := f.TStat(k - 1)
 	return v, !math.IsNaN(v) && !math.IsInf(v, 0)
 }
@@ -845,3 +852,50 @@ func FuzzSADF(f *testing.F) { explFuzz(f, idSADF) }
 
 // FuzzGSADF: arbitrary series never panic; a result has a finite statistic.
 func FuzzGSADF(f *testing.F) { explFuzz(f, idGSADF) }
+
+// TestExplosiveExactFit checks the exact-fit rule (common practice, no
+// source): noiseless series give an error or a finite statistic, never an
+// absurd one, and an exact explosive path is an error.
+func TestExplosiveExactFit(t *testing.T) {
+	n := 120
+	alt, step, trend, growth := make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	for i := range n {
+		alt[i] = float64(i % 2)
+		step[i] = 0.25
+		if i >= 60 {
+			step[i] = 1
+		}
+		trend[i] = 2 + 0.5*float64(i+1)
+		growth[i] = math.Pow(1.05, float64(i+1))
+	}
+	for _, c := range []struct {
+		name    string
+		y       []float64
+		wantErr bool
+	}{
+		{"alternating", alt, true},
+		{"step", step, false},
+		{"trend", trend, true},
+		{"growth", growth, true},
+	} {
+		for _, id := range []string{idSADF, idGSADF} {
+			info, err := Lookup(id)
+			if err != nil {
+				t.Fatal(err)
+			}
+			r, err := info.Run(context.Background(), c.y, &Config{})
+			if c.wantErr {
+				if err == nil || !errors.Is(err, ErrNoEstimate) {
+					t.Errorf("%s/%s: want ErrNoEstimate, got %v", c.name, id, err)
+				}
+				continue
+			}
+			if err != nil {
+				continue
+			}
+			if r.Statistic == nil || math.Abs(*r.Statistic) > 1e6 {
+				t.Errorf("%s/%s: statistic %v", c.name, id, r.Statistic)
+			}
+		}
+	}
+}
