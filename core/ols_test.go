@@ -7,6 +7,7 @@ package core
 import (
 	"math"
 	"math/rand/v2"
+	"strconv"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
@@ -185,5 +186,173 @@ func TestStandardizeExtremeScales(t *testing.T) {
 		if math.Abs(m/scale-2.75) > 1e-12 || math.Abs(s/scale-1.479019945774904) > 1e-12 {
 			t.Errorf("scale %g: mean %g sd %g", scale, m, s)
 		}
+	}
+}
+
+// dfDesign builds the design of an augmented Dickey-Fuller regression with
+// a constant, a trend and three lagged differences (k = 6 regressors:
+// 1, t, y_{t-1}, Δy_{t-1}, Δy_{t-2}, Δy_{t-3}) with n observations, from a
+// seeded Gaussian random walk (common practice, no source). The level
+// y_{t-1} and the dependent Δy_t are centred and scaled first
+// (Standardize), as every fast path must do before accumulating
+// cross-products.
+func dfDesign(n int) (X [][]float64, y []float64) {
+	const lags = 3
+	r := rand.New(rand.NewPCG(uint64(n), 6))
+	T := n + lags + 1
+	w := make([]float64, T)
+	for i := 1; i < T; i++ {
+		w[i] = w[i-1] + r.NormFloat64()
+	}
+	X = make([][]float64, 3+lags)
+	for j := range X {
+		X[j] = make([]float64, n)
+	}
+	y = make([]float64, n)
+	for i := 0; i < n; i++ {
+		t := i + lags + 1 // index of y_t in w
+		y[i] = w[t] - w[t-1]
+		X[0][i] = 1
+		X[1][i] = float64(t + 1)
+		X[2][i] = w[t-1]
+		for l := 1; l <= lags; l++ {
+			X[2+l][i] = w[t-l] - w[t-l-1]
+		}
+	}
+	X[2], _, _ = Standardize(nil, X[2])
+	y, _, _ = Standardize(nil, y)
+	return X, y
+}
+
+// normalFit accumulates X'X, X'y and y'y into m and solves; it returns the
+// sum of squared residuals (the cross-product fast path from scratch).
+func normalFit(m *Normal, X [][]float64, y []float64) (float64, error) {
+	k, n := len(X), len(y)
+	m.Reset(k)
+	for i := 0; i < n; i++ {
+		yi := y[i]
+		for a := 0; a < k; a++ {
+			xa := X[a][i]
+			row := m.A[a*k : a*k+a+1]
+			for c := range row {
+				row[c] += xa * X[c][i]
+			}
+			m.B[a] += xa * yi
+		}
+		m.YY += yi * yi
+	}
+	m.N = n
+	return m.Solve()
+}
+
+var benchSizes = []int{100, 1000, 10000}
+
+// BenchmarkLS times the Householder-QR kernel (coefficients, standard
+// errors, residuals) on the k = 6 Dickey-Fuller design.
+func BenchmarkLS(b *testing.B) {
+	for _, n := range benchSizes {
+		b.Run("n="+strconv.Itoa(n), func(b *testing.B) {
+			X, y := dfDesign(n)
+			var ls LS
+			if _, err := ls.Fit(X, y); err != nil {
+				b.Fatal(err)
+			}
+			b.ReportAllocs()
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				if _, err := ls.Fit(X, y); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkNormal times the cross-product fast path from scratch:
+// accumulating X'X, X'y, y'y over n rows, the Cholesky solve and every
+// standard error. Before timing, it must agree with LS (its brute-force
+// twin) to 1e-9.
+func BenchmarkNormal(b *testing.B) {
+	for _, n := range benchSizes {
+		b.Run("n="+strconv.Itoa(n), func(b *testing.B) {
+			X, y := dfDesign(n)
+			var m Normal
+			ssr, err := normalFit(&m, X, y)
+			if err != nil {
+				b.Fatal(err)
+			}
+			var ls LS
+			f, err := ls.Fit(X, y)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if math.Abs(ssr-f.SSR) > 1e-9*f.SSR {
+				b.Fatalf("ssr %g, LS %g", ssr, f.SSR)
+			}
+			for j := range f.Coef {
+				if math.Abs(m.Coef[j]-f.Coef[j]) > 1e-9*math.Max(1, math.Abs(f.Coef[j])) {
+					b.Fatalf("coef %d: %g, LS %g", j, m.Coef[j], f.Coef[j])
+				}
+			}
+			k := len(X)
+			b.ReportAllocs()
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				ssr, err := normalFit(&m, X, y)
+				if err != nil {
+					b.Fatal(err)
+				}
+				s2 := ssr / float64(n-k)
+				for j := 0; j < k; j++ {
+					_ = math.Sqrt(s2 * m.InvDiag(j))
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkLSGonumQR is the brute-force twin of BenchmarkLS and
+// BenchmarkNormal: gonum's general QR (mat.QR, Factorize and SolveTo) on the
+// same design, coefficients only, copying X into a reused matrix as LS
+// copies it into its own storage. It must agree with LS to 1e-9.
+func BenchmarkLSGonumQR(b *testing.B) {
+	for _, n := range benchSizes {
+		b.Run("n="+strconv.Itoa(n), func(b *testing.B) {
+			X, y := dfDesign(n)
+			k := len(X)
+			A := mat.NewDense(n, k, nil)
+			yv := mat.NewDense(n, 1, y)
+			var qr mat.QR
+			var coef mat.Dense
+			fit := func() error {
+				for j := range X {
+					for i, v := range X[j] {
+						A.Set(i, j, v)
+					}
+				}
+				qr.Factorize(A)
+				return qr.SolveTo(&coef, false, yv)
+			}
+			if err := fit(); err != nil {
+				b.Fatal(err)
+			}
+			var ls LS
+			f, err := ls.Fit(X, y)
+			if err != nil {
+				b.Fatal(err)
+			}
+			for j := range f.Coef {
+				if c := coef.At(j, 0); math.Abs(c-f.Coef[j]) > 1e-9*math.Max(1, math.Abs(f.Coef[j])) {
+					b.Fatalf("coef %d: gonum %g, LS %g", j, c, f.Coef[j])
+				}
+			}
+			b.ReportAllocs()
+			b.ResetTimer()
+			for i := 0; i < b.N; i++ {
+				if err := fit(); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
 	}
 }

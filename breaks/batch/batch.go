@@ -9,6 +9,7 @@ import (
 	"fmt"
 	"hash/fnv"
 	"io"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"runtime"
@@ -90,6 +91,36 @@ type Record struct {
 // Sink receives records in output order (one goroutine at a time).
 type Sink func(Record) error
 
+// ErrMissingInput is wrapped by CheckInputs and Run when an input path does
+// not exist (it is neither a file nor a directory): a usage error, reported
+// before the run starts. An input that exists but cannot be read or parsed
+// is not an error of the run: it yields a failure record.
+var ErrMissingInput = errors.New("no such file or directory")
+
+// CheckInputs returns an error wrapping ErrMissingInput that names every
+// input path that does not exist ("-", standard input, always exists).
+// Paths that exist but cannot be opened or read pass: Run reports them as
+// failure records.
+func CheckInputs(inputs []string) error {
+	var missing []string
+	for _, in := range inputs {
+		if in == "-" {
+			continue
+		}
+		if _, err := os.Stat(in); errors.Is(err, fs.ErrNotExist) {
+			missing = append(missing, fmt.Sprintf("%q", in))
+		}
+	}
+	if len(missing) == 0 {
+		return nil
+	}
+	word := "input"
+	if len(missing) > 1 {
+		word = "inputs"
+	}
+	return fmt.Errorf("%s %s: %w", word, strings.Join(missing, ", "), ErrMissingInput)
+}
+
 // ID returns the series id used for resume and sharding.
 func ID(source, name string) string { return source + ":" + name }
 
@@ -115,10 +146,15 @@ type task struct {
 
 // Run streams every series of cfg.Inputs through the battery with cfg.Jobs
 // workers and hands one record per series to sink. It returns the summary;
-// the error is non-nil for cancellation or a sink failure.
+// the error is non-nil for invalid settings, an input path that does not
+// exist (ErrMissingInput, checked before any series is read), cancellation
+// or a sink failure.
 func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 	start := time.Now()
 	if err := battery.Validate(cfg.Settings); err != nil {
+		return Summary{}, err
+	}
+	if err := CheckInputs(cfg.Inputs); err != nil {
 		return Summary{}, err
 	}
 	jobs := cfg.Jobs
@@ -428,7 +464,9 @@ func expand(inputs []string) ([]string, error) {
 		}
 		st, err := os.Stat(in)
 		if err != nil || !st.IsDir() {
-			out = append(out, in) // a missing file becomes a failure record
+			// A file, or a path Stat cannot see into (missing paths were
+			// refused by CheckInputs): reading it yields a failure record.
+			out = append(out, in)
 			continue
 		}
 		ents, err := os.ReadDir(in)

@@ -7,6 +7,7 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"math/rand/v2"
 	"os"
@@ -147,5 +148,61 @@ func TestRunCancel(t *testing.T) {
 	}
 	if n >= 12 {
 		t.Errorf("cancelled run still wrote all %d records", n)
+	}
+}
+
+// TestRunMissingInput: an input path that does not exist is refused before
+// the run starts (ErrMissingInput, naming the path, no record written); an
+// input that exists but cannot be read or parsed stays a failure record
+// (common practice: usage errors up front, data errors per series).
+func TestRunMissingInput(t *testing.T) {
+	dir := t.TempDir()
+	writeSeries(t, dir, 1, 2, 80)
+	broken := filepath.Join(dir, "broken.csv")
+	if err := os.WriteFile(broken, []byte("\x00\x01\x02binary"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	inputs := []string{dir}
+	if os.Geteuid() != 0 { // root reads a mode-000 file anyway
+		locked := filepath.Join(t.TempDir(), "locked.csv")
+		if err := os.WriteFile(locked, []byte("x\n1\n"), 0o000); err != nil {
+			t.Fatal(err)
+		}
+		inputs = append(inputs, locked)
+	}
+	missing := filepath.Join(dir, "no-such-file.csv")
+	set := schema.Settings{Tests: []string{"adf"}}
+
+	if err := CheckInputs(append(inputs, "-")); err != nil {
+		t.Fatalf("existing inputs and stdin must pass: %v", err)
+	}
+	calls := 0
+	_, err := Run(context.Background(), Config{Inputs: append(append([]string{}, inputs...), missing, "/no/such/dir"), Settings: set},
+		func(Record) error { calls++; return nil })
+	if !errors.Is(err, ErrMissingInput) {
+		t.Fatalf("err = %v, want ErrMissingInput", err)
+	}
+	for _, p := range []string{missing, "/no/such/dir"} {
+		if !strings.Contains(err.Error(), p) {
+			t.Errorf("error %q does not name %s", err, p)
+		}
+	}
+	if calls != 0 {
+		t.Errorf("%d records written before the usage error", calls)
+	}
+
+	var recs []Record
+	sum, err := Run(context.Background(), Config{Inputs: inputs, Settings: set}, func(r Record) error { recs = append(recs, r); return nil })
+	if err != nil {
+		t.Fatal(err)
+	}
+	wantBad := len(inputs) // broken.csv, and locked.csv when not root
+	if sum.BadInputs != wantBad || sum.Failed != wantBad || sum.Tested != 2 || len(recs) != 2+wantBad {
+		t.Fatalf("summary %+v with %d records, want %d failure records and 2 tested series", sum, len(recs), wantBad)
+	}
+	for _, r := range recs {
+		if r.Doc.Source.Name == broken && len(r.Doc.Series[0].Errors) == 0 {
+			t.Errorf("the unreadable file's record carries no error: %+v", r.Doc.Series[0])
+		}
 	}
 }

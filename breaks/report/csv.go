@@ -16,12 +16,23 @@ import (
 //	                   M-test statistic or structural-change statistic, under its
 //	                   result), "error", "warning", or "series" (only for a series
 //	                   that has no other row)
+//	id                 "SOURCE:SERIES" when the document names its source
+//	                   (doc.Source.Name, e.g. the input file), else the series
+//	                   name; it tells apart rows from different files in one
+//	                   batch summary CSV
 //	series             series name
 //	test, variant      test id and sub-form
 //	component          component name (component rows only)
 //	trend, shift       deterministic terms and break kind
 //	statistic          the test statistic
 //	p_value            asymptotic or response-surface p-value (empty: none)
+//	p_value_bound      "<" when p_value is an upper bound of the true p-value
+//	                   (the statistic lies beyond the table's lower end), ">"
+//	                   when it is a lower bound, empty when it is a point value;
+//	                   set when the test says so (PValueMethod or a warning:
+//	                   "p-value bounded at", "clamped", "table end", ...) and
+//	                   always for p_value <= 0.001 ("<") and >= 0.999 (">");
+//	                   see pbound.go
 //	p_value_sim        simulated finite-sample p-value (empty: not simulated)
 //	cv_1, cv_5, cv_10  critical values at 1%, 5% and 10%
 //	tail               "left" or "right": which statistics reject
@@ -42,8 +53,8 @@ import (
 // character get a leading apostrophe so that spreadsheets do not read them
 // as formulas.
 var CSVHeader = []string{
-	"row_type", "series", "test", "variant", "component", "trend", "shift",
-	"statistic", "p_value", "p_value_sim", "cv_1", "cv_5", "cv_10", "tail",
+	"row_type", "id", "series", "test", "variant", "component", "trend", "shift",
+	"statistic", "p_value", "p_value_bound", "p_value_sim", "cv_1", "cv_5", "cv_10", "tail",
 	"lags", "lag_rule", "nobs", "level", "reject", "decision",
 	"break_dates", "break_indexes", "verdict_class", "verdict_order", "verdict_transform", "message",
 }
@@ -61,7 +72,7 @@ func WriteCSV(w io.Writer, doc *schema.Document) error {
 		return err
 	}
 	for i := range doc.Series {
-		for _, rec := range csvSeries(&doc.Series[i]) {
+		for _, rec := range csvSeries(csvID(doc, &doc.Series[i]), &doc.Series[i]) {
 			if err := cw.Write(rec); err != nil {
 				return err
 			}
@@ -74,6 +85,7 @@ func WriteCSV(w io.Writer, doc *schema.Document) error {
 // csv column indexes, in CSVHeader order.
 const (
 	cRowType = iota
+	cID
 	cSeries
 	cTest
 	cVariant
@@ -82,6 +94,7 @@ const (
 	cShift
 	cStatistic
 	cPValue
+	cPValueBound
 	cPValueSim
 	cCV1
 	cCV5
@@ -102,11 +115,21 @@ const (
 	cNumColumns
 )
 
-func csvSeries(s *schema.Series) [][]string {
+// csvID is the id column of series s in doc: "SOURCE:SERIES" when the
+// document names its source, else the series name.
+func csvID(doc *schema.Document, s *schema.Series) string {
+	if doc.Source != nil && doc.Source.Name != "" {
+		return doc.Source.Name + ":" + s.Name
+	}
+	return s.Name
+}
+
+func csvSeries(id string, s *schema.Series) [][]string {
 	var out [][]string
 	row := func(kind string) []string {
 		rec := make([]string, cNumColumns)
 		rec[cRowType] = kind
+		rec[cID] = csvText(id)
 		rec[cSeries] = csvText(s.Name)
 		if v := s.Verdict; v != nil {
 			rec[cVerdictClass] = csvText(v.Class)
@@ -126,6 +149,7 @@ func csvSeries(s *schema.Series) [][]string {
 		rec[cShift] = csvText(r.Shift)
 		rec[cStatistic] = csvNum(r.Statistic)
 		rec[cPValue] = csvNum(r.PValue)
+		rec[cPValueBound] = resultPBound(r)
 		rec[cPValueSim] = csvNum(r.PValueSim)
 		csvCV(rec, r.CriticalValues)
 		rec[cTail] = csvText(r.Tail)
@@ -154,6 +178,7 @@ func csvSeries(s *schema.Series) [][]string {
 			crec[cShift] = rec[cShift]
 			crec[cStatistic] = csvNum(c.Statistic)
 			crec[cPValue] = csvNum(c.PValue)
+			crec[cPValueBound] = pBound(c.PValue, false)
 			csvCV(crec, c.CriticalValues)
 			crec[cTail] = csvText(c.Tail)
 			if c.Tail == "" {

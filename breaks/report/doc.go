@@ -18,6 +18,12 @@
 //     stationarity", "cannot reject stationarity", "finds a break",
 //     "no break found", and for right-tailed unit-root tests "rejects unit
 //     root (explosive)".
+//   - A p-value that is only a bound (the statistic lies beyond the table the
+//     test reads it from, as the test says in p_value_method or a warning)
+//     prints as "<0.001", ">0.999" or "<0.005" in the table, Markdown, HTML
+//     and LaTeX ($<0.001$); any p-value <= 0.001 or >= 0.999 prints as
+//     "<0.001" or ">0.999". The CSV keeps the number in p_value and adds
+//     "<" or ">" in p_value_bound. See pbound.go for the phrases recognised.
 //   - Significance stars in LaTeX mark p < 0.10 (*), p < 0.05 (**) and
 //     p < 0.01 (***). They use the asymptotic p-value, else the simulated
 //     one, else the critical values of the result.

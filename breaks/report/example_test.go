@@ -33,6 +33,6 @@ func ExampleWrite() {
 		fmt.Println(err)
 	}
 	// Output:
-	// row_type,series,test,variant,component,trend,shift,statistic,p_value,p_value_sim,cv_1,cv_5,cv_10,tail,lags,lag_rule,nobs,level,reject,decision,break_dates,break_indexes,verdict_class,verdict_order,verdict_transform,message
-	// result,rate,adf,,,constant,,-3.9876,0.0123,,,-2.8859,,left,2,,117,0.05,true,rejects unit root,,,,,,
+	// row_type,id,series,test,variant,component,trend,shift,statistic,p_value,p_value_bound,p_value_sim,cv_1,cv_5,cv_10,tail,lags,lag_rule,nobs,level,reject,decision,break_dates,break_indexes,verdict_class,verdict_order,verdict_transform,message
+	// result,rate,rate,adf,,,constant,,-3.9876,0.0123,,,,-2.8859,,left,2,,117,0.05,true,rejects unit root,,,,,,
 }

@@ -164,9 +164,9 @@ func htmlResults(e *errWriter, s *schema.Series) {
 		td("", strings.TrimSpace(r.Variant+" "+r.Shift))
 		td("", r.Trend)
 		td("num", numP(r.Statistic, "n/a"))
-		td("num", numP(r.PValue, "n/a"))
+		td("num", resultP(r, "n/a"))
 		if hasSim {
-			td("num", numP(r.PValueSim, "n/a"))
+			td("num", simP(r, "n/a"))
 		}
 		cv5 := "n/a"
 		if c, ok := cv(r.CriticalValues, "0.05"); ok {
@@ -210,7 +210,7 @@ func htmlResults(e *errWriter, s *schema.Series) {
 			td("name", c.Name)
 			td("", "")
 			td("num", numP(c.Statistic, "n/a"))
-			td("num", numP(c.PValue, "n/a"))
+			td("num", compP(c, "n/a"))
 			if hasSim {
 				td("", "")
 			}

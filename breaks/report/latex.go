@@ -2,6 +2,7 @@ package report
 
 import (
 	"io"
+	"math"
 	"strconv"
 	"strings"
 
@@ -86,7 +87,7 @@ func (t *texTable) series(s *schema.Series) {
 	for i := range s.Results {
 		r := &s.Results[i]
 		variant := strings.TrimSpace(r.Variant + " " + r.Shift)
-		stat := texNum(r.Statistic, stars(r.PValue, r.PValueSim, r.Statistic, r.CriticalValues, r.Tail))
+		stat := texNum(r.Statistic, stars(starsP(r.PValue, resultPBound(r)), r.PValueSim, r.Statistic, r.CriticalValues, r.Tail))
 		cv5 := "--"
 		if c, ok := cv(r.CriticalValues, "0.05"); ok {
 			cv5 = texNum(&c, "")
@@ -98,9 +99,9 @@ func (t *texTable) series(s *schema.Series) {
 		if len(r.Episodes) > 0 {
 			br = append(br, "explosive "+episodeText(r.Episodes))
 		}
-		cells := []string{texEscape(r.Test), texEscape(variant), texEscape(r.Trend), stat, texNum(r.PValue, "")}
+		cells := []string{texEscape(r.Test), texEscape(variant), texEscape(r.Trend), stat, texP(r.PValue, resultPBound(r))}
 		if t.sim {
-			cells = append(cells, texNum(r.PValueSim, ""))
+			cells = append(cells, texP(r.PValueSim, pBound(r.PValueSim, false)))
 		}
 		cells = append(cells, cv5, strconv.Itoa(r.Lags), texEscape(strings.Join(br, "; ")))
 		e.print(strings.Join(cells, " & ") + " \\\\\n")
@@ -116,7 +117,7 @@ func (t *texTable) series(s *schema.Series) {
 				ccv = texNum(&v, "")
 			}
 			cc := []string{"", "\\quad " + texEscape(c.Name), "",
-				texNum(c.Statistic, stars(c.PValue, nil, c.Statistic, c.CriticalValues, tail)), texNum(c.PValue, "")}
+				texNum(c.Statistic, stars(c.PValue, nil, c.Statistic, c.CriticalValues, tail)), texP(c.PValue, pBound(c.PValue, false))}
 			if t.sim {
 				cc = append(cc, "")
 			}
@@ -154,3 +155,23 @@ var texReplacer = strings.NewReplacer(
 
 // texEscape escapes text for LaTeX.
 func texEscape(s string) string { return texReplacer.Replace(s) }
+
+// texP formats a p-value in math mode, as a bound ("$<0.001$") when bound
+// is "<" or ">", or "--" when p is nil or not finite.
+func texP(p *float64, bound string) string {
+	if p == nil || !finite(*p) || bound == "" {
+		return texNum(p, "")
+	}
+	return "$" + boundNum(*p, bound) + "$"
+}
+
+// starsP is the p-value the stars read: a lower-end bound "<p" means the
+// true p-value is below p (the statistic lies beyond the table's p
+// quantile), so it counts as just below p.
+func starsP(p *float64, bound string) *float64 {
+	if p == nil || bound != "<" {
+		return p
+	}
+	x := math.Nextafter(*p, 0)
+	return &x
+}

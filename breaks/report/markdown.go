@@ -99,9 +99,9 @@ func mdSeries(e *errWriter, s *schema.Series) {
 			if c, ok := cv(r.CriticalValues, "0.05"); ok {
 				cv5 = num(c, "n/a")
 			}
-			cells := []string{mdCell(r.Test), mdCell(variant), numP(r.Statistic, "n/a"), numP(r.PValue, "n/a")}
+			cells := []string{mdCell(r.Test), mdCell(variant), numP(r.Statistic, "n/a"), resultP(r, "n/a")}
 			if hasSim {
-				cells = append(cells, numP(r.PValueSim, "n/a"))
+				cells = append(cells, simP(r, "n/a"))
 			}
 			var extra []string
 			if len(r.Breaks) > 0 {
@@ -122,7 +122,7 @@ func mdSeries(e *errWriter, s *schema.Series) {
 				if v, ok := cv(c.CriticalValues, "0.05"); ok {
 					ccv = num(v, "n/a")
 				}
-				cc := []string{"", mdCell("↳ " + c.Name), numP(c.Statistic, "n/a"), numP(c.PValue, "n/a")}
+				cc := []string{"", mdCell("↳ " + c.Name), numP(c.Statistic, "n/a"), compP(c, "n/a")}
 				if hasSim {
 					cc = append(cc, "")
 				}

@@ -32,27 +32,29 @@ Input shapes:
   --jsonl               JSON Lines: {"id": "...", "dates": [...], "values": [...]}
 
 Exit status: 0 when every series was tested, 1 when some failed (their
-records carry the errors), 2 for usage errors.`
+records carry the errors; a file that exists but cannot be read or parsed is
+one failed record), 2 for usage errors (including an INPUT path that does not
+exist, checked before anything runs or is written).`
 
 func (e *env) batch(args []string) int {
 	var cfg batch.Config
 	var out, shard, order, cachePath, csvPath, verdictPath string
 	var long, jsonl, resume, quiet bool
-	fs := newFlagSet("batch", e.stderr, batchUsage)
+	fs := newFlagSet("batch", e.stdout, batchUsage)
 	settingsFlags(fs, &cfg.Settings)
 	fs.BoolVar(&long, "long", false, "inputs are long files (id, date, value)")
 	fs.BoolVar(&jsonl, "jsonl", false, "inputs are JSON Lines (one series per line)")
-	fs.StringVar(&cfg.Long.ID, "id-col", "id", "long files: series id column")
-	fs.StringVar(&cfg.Long.Date, "date-col", "date", "long files: date column")
-	fs.StringVar(&cfg.Long.Value, "value-col", "value", "long files: value column")
-	fs.IntVar(&cfg.Jobs, "j", 0, "parallel workers (default: all cores)")
-	fs.StringVar(&order, "order", "input", "record order: input (same as the input) or completed (as they finish)")
-	fs.StringVar(&out, "o", "", "output file (default standard output); needed for --resume")
+	fs.StringVar(&cfg.Long.ID, "id-col", "id", "long files: series id `column`")
+	fs.StringVar(&cfg.Long.Date, "date-col", "date", "long files: date `column`")
+	fs.StringVar(&cfg.Long.Value, "value-col", "value", "long files: value `column`")
+	fs.IntVar(&cfg.Jobs, "j", 0, "`number` of parallel workers (default: all cores)")
+	fs.StringVar(&order, "order", "input", "record order `mode`: input (same as the input) or completed (as they finish)")
+	fs.StringVar(&out, "o", "", "output `file` (default: standard output); needed for --resume")
 	fs.BoolVar(&resume, "resume", false, "skip series already in the output file and append the rest")
-	fs.StringVar(&shard, "shard", "", "take shard i of n (i from 1 to n) by a stable hash of the series id, e.g. 3/8")
-	fs.StringVar(&cachePath, "dist-cache", "", "load and save simulated null distributions here (with --sims)")
-	fs.StringVar(&csvPath, "csv", "", "also write the summary CSV (one row per series and test) here")
-	fs.StringVar(&verdictPath, "verdicts", "", "also write the verdict table (CSV, one row per series) here")
+	fs.StringVar(&shard, "shard", "", "take shard `i/n` (i from 1 to n) by a stable hash of the series id, e.g. 3/8")
+	fs.StringVar(&cachePath, "dist-cache", "", "load and save simulated null distributions in this `file` (with --sims)")
+	fs.StringVar(&csvPath, "csv", "", "also write the summary CSV (one row per series and test) to this `file`")
+	fs.StringVar(&verdictPath, "verdicts", "", "also write the verdict table (CSV, one row per series) to this `file`")
 	fs.BoolVar(&quiet, "quiet", false, "no progress on standard error")
 	fs.BoolVar(&cfg.Lean, "lean", false, "leave out plotting data (search paths, sequences): records about ten times smaller")
 	inputs, err := parseInterleaved(fs, args)
@@ -92,6 +94,10 @@ func (e *env) batch(args []string) int {
 	}
 	if err := battery.Validate(cfg.Settings); err != nil {
 		return e.usageExit(err)
+	}
+	// Before the output file is created or truncated.
+	if err := batch.CheckInputs(inputs); err != nil {
+		return e.usageExit(fmt.Errorf("batch: %w", err))
 	}
 	if cfg.Settings.Sims > 0 || cachePath != "" {
 		cfg.Cache = battery.NewDistCache()
@@ -197,7 +203,7 @@ func (e *env) batch(args []string) int {
 			return exitCancel
 		}
 		var ue *battery.UsageError
-		if errors.As(err, &ue) {
+		if errors.As(err, &ue) || errors.Is(err, batch.ErrMissingInput) {
 			return exitUsage
 		}
 		return exitFailed

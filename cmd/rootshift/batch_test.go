@@ -7,6 +7,7 @@ package main
 
 import (
 	"bufio"
+	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"math/rand/v2"
@@ -235,17 +236,42 @@ func countLines(t *testing.T, path string) int {
 }
 
 func TestBatchUsageErrors(t *testing.T) {
-	for _, args := range [][]string{
-		{"batch"},
-		{"batch", "--shard", "4/3", "x"},
-		{"batch", "--resume", "x"},
-		{"batch", "--order", "random", "x"},
-		{"batch", "--long", "--jsonl", "x"},
-		{"batch", "--tests", "nosuch", "x"},
+	const in = "../../testdata/demo.csv" // exists: each case fails on its flag
+	for _, tc := range []struct {
+		args []string
+		want string // in stderr
+	}{
+		{[]string{"batch"}, "no input"},
+		{[]string{"batch", "--shard", "4/3", in}, "--shard"},
+		{[]string{"batch", "--resume", in}, "--resume"},
+		{[]string{"batch", "--order", "random", in}, "--order"},
+		{[]string{"batch", "--long", "--jsonl", in}, "--long"},
+		{[]string{"batch", "--tests", "nosuch", in}, "nosuch"},
+		{[]string{"batch", "--tests", "adf", in, "no-such-dir/none.csv"}, `"no-such-dir/none.csv": no such file or directory`},
 	} {
-		if code, _, _ := runCLI(t, "", args...); code != 2 {
-			t.Errorf("%v: exit status %d, want 2", args, code)
+		code, _, stderr := runCLI(t, "", tc.args...)
+		if code != 2 {
+			t.Errorf("%v: exit status %d, want 2", tc.args, code)
 		}
+		if !strings.Contains(stderr, tc.want) {
+			t.Errorf("%v: stderr %q does not mention %q", tc.args, stderr, tc.want)
+		}
+	}
+}
+
+// TestBatchMissingInputKeepsOutput: a missing input is refused before the
+// output file is touched, so a previous run's output survives a typo.
+func TestBatchMissingInputKeepsOutput(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "out.jsonl")
+	if err := os.WriteFile(out, []byte("previous run\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, stdout, stderr := runCLI(t, "", "batch", "--tests", "adf", "-o", out, "--quiet", "no-such-file.csv")
+	if code != 2 || stdout != "" || !strings.Contains(stderr, "no-such-file.csv") {
+		t.Fatalf("exit %d, stdout %q, stderr %q: want a usage error naming the path", code, stdout, stderr)
+	}
+	if b, _ := os.ReadFile(out); string(b) != "previous run\n" {
+		t.Errorf("output file changed to %q", b)
 	}
 }
 
@@ -274,5 +300,46 @@ func TestBatchJSONLStdin(t *testing.T) {
 	json.Unmarshal([]byte(lines[5]), &last)
 	if len(last.Series) != 1 || len(last.Series[0].Errors) == 0 {
 		t.Errorf("the bad record must carry its error: %s", lines[5])
+	}
+}
+
+// TestBatchSummaryCSVID: two files with the same column name give rows that
+// the summary CSV's id column (SOURCE:SERIES) tells apart; one header only.
+func TestBatchSummaryCSVID(t *testing.T) {
+	dir := t.TempDir()
+	r := rand.New(rand.NewPCG(9, 9))
+	for _, name := range []string{"a.csv", "b.csv"} {
+		var b strings.Builder
+		b.WriteString("x\n")
+		s := 0.0
+		for i := 0; i < 80; i++ {
+			s += r.NormFloat64()
+			fmt.Fprintf(&b, "%.4f\n", s)
+		}
+		if err := os.WriteFile(filepath.Join(dir, name), []byte(b.String()), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	sum := filepath.Join(t.TempDir(), "summary.csv")
+	code, _, stderr := runCLI(t, "", "batch", "--tests", "adf", "--quiet", "--csv", sum, dir)
+	if code != 0 {
+		t.Fatalf("exit %d: %s", code, stderr)
+	}
+	f, err := os.Open(sum)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	recs, err := csv.NewReader(f).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(recs) != 3 || recs[0][1] != "id" {
+		t.Fatalf("want a header and two rows with an id column: %v", recs)
+	}
+	ids := []string{recs[1][1], recs[2][1]}
+	want := []string{filepath.Join(dir, "a.csv") + ":x", filepath.Join(dir, "b.csv") + ":x"}
+	if !slices.Equal(ids, want) {
+		t.Errorf("ids %v, want %v", ids, want)
 	}
 }

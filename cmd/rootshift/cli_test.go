@@ -186,3 +186,27 @@ func TestCriticalJSON(t *testing.T) {
 		t.Error("critical is not reproducible for a fixed seed")
 	}
 }
+
+// TestHelp: -h prints the options to standard output with exit 0, with
+// readable placeholders (no "value", no sentence turned into a placeholder);
+// a bad flag gives one short error, not the whole help.
+func TestHelp(t *testing.T) {
+	for _, cmd := range []string{"test", "demo", "batch", "critical", "page"} {
+		code, out, stderr := runCLI(t, "", cmd, "-h")
+		if code != 0 || stderr != "" || !strings.Contains(out, "Usage: rootshift "+cmd) || !strings.Contains(out, "Options:") {
+			t.Errorf("%s -h: exit %d, stderr %q, stdout %.80q", cmd, code, stderr, out)
+		}
+		for _, l := range strings.Split(out, "\n") {
+			if strings.HasPrefix(l, "  -") && (strings.HasSuffix(l, " value") || strings.Contains(l, "rootshift tests")) {
+				t.Errorf("%s -h: odd flag line %q", cmd, l)
+			}
+		}
+		if cmd != "page" && !strings.Contains(out, "  --tests ids\n") {
+			t.Errorf("%s -h lacks the line \"--tests ids\"", cmd)
+		}
+	}
+	code, out, stderr := runCLI(t, "", "test", "--nosuch", "x.csv")
+	if code != 2 || out != "" || strings.Contains(stderr, "Options:") || !strings.Contains(stderr, "-nosuch") || !strings.Contains(stderr, "rootshift test -h") {
+		t.Errorf("bad flag: exit %d, stderr %q", code, stderr)
+	}
+}

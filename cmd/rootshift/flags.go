@@ -60,13 +60,15 @@ func (f listFlag) Set(s string) error { *f.p = append(*f.p, splitList(s)...); re
 // settingsFlags binds every analysis setting to fs. The names are a
 // contract shared with the schema's settings object and the page.
 func settingsFlags(fs *flag.FlagSet, s *schema.Settings) {
-	fs.Var(listFlag{&s.Tests}, "tests", "comma-separated test ids (default: the default battery and the verdict); see `rootshift tests`")
-	fs.Var(listFlag{&s.VerdictTests}, "verdict-tests", "tests the verdict may use (default: adf,kpss,za,ls1,bp,sadf)")
+	// A word in backquotes is the placeholder PrintDefaults shows after the
+	// flag name ("--tests IDS"); other flags of custom types would show "value".
+	fs.Var(listFlag{&s.Tests}, "tests", "comma-separated test `ids` (default: the default battery and the verdict); \"rootshift tests\" lists them")
+	fs.Var(listFlag{&s.VerdictTests}, "verdict-tests", "test `ids` the verdict may use (default: adf,kpss,za,ls1,bp,sadf)")
 	fs.StringVar(&s.Trend, "trend", "", "deterministic terms: none, constant, linear (default auto: each test's own)")
-	fs.Var(intPtr{&s.Lags}, "lags", "fixed augmentation lags K (default: chosen by --lag-rule)")
+	fs.Var(intPtr{&s.Lags}, "lags", "fixed augmentation lags `K` (default: chosen by --lag-rule)")
 	fs.StringVar(&s.LagRule, "lag-rule", "", "lag selection: aic, bic, maic, tsig (default: each method's own rule)")
-	fs.Var(intPtr{&s.MaxLags}, "max-lags", "largest lag considered (default: Schwert 1989, 12(T/100)^(1/4))")
-	fs.Var(floatPtr{&s.Bandwidth}, "bandwidth", "kernel bandwidth for pp and kpss (default: automatic)")
+	fs.Var(intPtr{&s.MaxLags}, "max-lags", "largest lag `K` considered (default: each test's own, Schwert 1989 floor(12(T/100)^(1/4)) or 8 for break tests)")
+	fs.Var(floatPtr{&s.Bandwidth}, "bandwidth", "fixed kernel bandwidth (a `number`) for pp and kpss (default: automatic)")
 	fs.StringVar(&s.Kernel, "kernel", "", "long-run variance kernel: bartlett (default) or qs")
 	fs.StringVar(&s.BandwidthRule, "bandwidth-rule", "", "automatic bandwidth: newey-west (default) or andrews")
 	fs.Float64Var(&s.Level, "level", 0, "significance level for decisions (default 0.05)")
@@ -79,7 +81,7 @@ func settingsFlags(fs *flag.FlagSet, s *schema.Settings) {
 	fs.BoolVar(&s.RightTail, "right-tail", false, "adf against an explosive root (right-tailed)")
 	fs.Float64Var(&s.MinWindow, "min-window", 0, "sadf/gsadf minimum window fraction (default 0.01+1.8/sqrt(T))")
 	fs.IntVar(&s.MaxBreaks, "max-breaks", 0, "bp: largest number of breaks (default 5)")
-	fs.Var(listFlag{&s.Columns}, "columns", "comma-separated series (column headers) to test (default: every numeric column)")
+	fs.Var(listFlag{&s.Columns}, "columns", "comma-separated series (column `names`) to test (default: every numeric column)")
 	fs.StringVar(&s.From, "from", "", "first observation of the sample (date or number)")
 	fs.StringVar(&s.To, "to", "", "last observation of the sample (date or number)")
 	fs.StringVar(&s.Transform, "transform", "", "transform before testing: log, diff, diff2, logdiff")
@@ -87,15 +89,21 @@ func settingsFlags(fs *flag.FlagSet, s *schema.Settings) {
 }
 
 // parseInterleaved parses flags that may come before or after positional
-// arguments ("test FILE --json"). "--" ends flag parsing.
+// arguments ("test FILE --json"). "--" ends flag parsing. -h prints the
+// help (fs.Usage) and returns errHelp; a bad flag returns an error that
+// points to -h, without printing the whole help.
 func parseInterleaved(fs *flag.FlagSet, args []string) ([]string, error) {
 	var pos []string
+	help := fs.Usage
+	fs.Usage = func() {}
+	defer func() { fs.Usage = help }()
 	for {
 		if err := fs.Parse(args); err != nil {
 			if errors.Is(err, flag.ErrHelp) {
+				help()
 				return nil, errHelp
 			}
-			return nil, err
+			return nil, fmt.Errorf("%v (\"rootshift %s -h\" lists the options)", err, fs.Name())
 		}
 		rest := fs.Args()
 		if len(rest) == 0 {
@@ -109,12 +117,34 @@ func parseInterleaved(fs *flag.FlagSet, args []string) ([]string, error) {
 	}
 }
 
-func newFlagSet(name string, stderr io.Writer, usage string) *flag.FlagSet {
+// newFlagSet returns the flag set of a command. Its help (-h) goes to
+// stdout, as for "rootshift help", and lists the flags with two dashes, the
+// form the usage lines and messages use (one for one-letter flags: -o, -j;
+// the flag package accepts both); parse errors are not printed by
+// the flag package (the caller reports them once).
+func newFlagSet(name string, stdout io.Writer, usage string) *flag.FlagSet {
 	fs := flag.NewFlagSet(name, flag.ContinueOnError)
-	fs.SetOutput(stderr)
+	fs.SetOutput(io.Discard)
 	fs.Usage = func() {
-		fmt.Fprintf(stderr, "%s\n\nOptions:\n", usage)
-		fs.PrintDefaults()
+		var b strings.Builder
+		b.WriteString(usage + "\n\nOptions:\n")
+		fs.VisitAll(func(f *flag.Flag) {
+			placeholder, text := flag.UnquoteUsage(f)
+			dash := "--"
+			if len(f.Name) == 1 {
+				dash = "-" // -o, -j
+			}
+			b.WriteString("  " + dash + f.Name)
+			if placeholder != "" {
+				b.WriteString(" " + placeholder)
+			}
+			b.WriteString("\n    \t" + strings.ReplaceAll(text, "\n", "\n    \t"))
+			if d := f.DefValue; d != "" && d != "0" && d != "false" && !strings.Contains(text, "default") {
+				fmt.Fprintf(&b, " (default %q)", d)
+			}
+			b.WriteString("\n")
+		})
+		io.WriteString(stdout, b.String())
 	}
 	return fs
 }

@@ -9,8 +9,8 @@ import (
 
 func (e *env) page(args []string) int {
 	var out string
-	fs := newFlagSet("page", e.stderr, "Usage: rootshift page -o FILE\n\nWrites the offline page: one self-contained HTML file with the whole engine\ncompiled to WebAssembly. Open it by double-click; it never sends data anywhere.")
-	fs.StringVar(&out, "o", "rootshift.html", "output file")
+	fs := newFlagSet("page", e.stdout, "Usage: rootshift page -o FILE\n\nWrites the offline page: one self-contained HTML file with the whole engine\ncompiled to WebAssembly. Open it by double-click; it never sends data anywhere.")
+	fs.StringVar(&out, "o", "rootshift.html", "output `file`")
 	if _, err := parseInterleaved(fs, args); err != nil {
 		return e.usageExit(err)
 	}

@@ -27,11 +27,11 @@ type outputOpts struct {
 func (e *env) test(args []string) int {
 	var s schema.Settings
 	var o outputOpts
-	fs := newFlagSet("test", e.stderr, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).")
+	fs := newFlagSet("test", e.stdout, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).")
 	settingsFlags(fs, &s)
 	fs.BoolVar(&o.json, "json", false, "print the JSON document (schema rootshift.results/v1); same as --format json")
 	fs.StringVar(&o.format, "format", "table", "output: "+strings.Join(report.Formats, ", "))
-	fs.StringVar(&o.out, "out", "", "write the output to this file instead of standard output")
+	fs.StringVar(&o.out, "out", "", "write the output to this `file` instead of standard output")
 	fs.BoolVar(&o.quiet, "quiet", false, "no progress messages on standard error")
 	files, err := parseInterleaved(fs, args)
 	if err != nil {
@@ -48,11 +48,11 @@ func (e *env) demo(args []string) int {
 	var s schema.Settings
 	var o outputOpts
 	var reportPath string
-	fs := newFlagSet("demo", e.stderr, "Usage: rootshift demo [options]\n\nRuns the battery and the verdict on the built-in demo data.\n"+battery.DemoDescription)
+	fs := newFlagSet("demo", e.stdout, "Usage: rootshift demo [options]\n\nRuns the battery and the verdict on the built-in demo data.\n"+battery.DemoDescription)
 	settingsFlags(fs, &s)
 	fs.BoolVar(&o.json, "json", false, "print the JSON document instead of the table")
 	fs.StringVar(&o.format, "format", "table", "output: "+strings.Join(report.Formats, ", "))
-	fs.StringVar(&reportPath, "report", "rootshift-demo-report.html", "also write the self-contained HTML report here (\"\" for none)")
+	fs.StringVar(&reportPath, "report", "rootshift-demo-report.html", "also write the self-contained HTML report to this `file` (\"\" for none)")
 	fs.BoolVar(&o.quiet, "quiet", false, "no progress messages on standard error")
 	var data bool
 	fs.BoolVar(&data, "data", false, "print the demo data as CSV and exit")
@@ -97,7 +97,7 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 		return e.usageExit(err)
 	}
 	opt := &battery.Options{}
-	if !o.quiet && s.Sims > 0 {
+	if !o.quiet && s.Sims > 0 && isTerminal(e.stderr) { // "\r" progress: terminals only
 		opt.Progress = progressPrinter(e.stderr)
 	}
 	var doc *schema.Document
