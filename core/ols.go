@@ -80,10 +80,7 @@ func (w *LS) Fit(X [][]float64, y []float64) (*Fit, error) {
 		if len(col) != n {
 			panic("core: LS.Fit column length mismatch")
 		}
-		s := 0.0
-		for _, v := range col {
-			s = math.Hypot(s, v)
-		}
+		s := norm2(col)
 		if s == 0 || math.IsNaN(s) || math.IsInf(s, 0) {
 			if math.IsNaN(s) || math.IsInf(s, 0) {
 				return nil, ErrNonFinite
@@ -100,10 +97,7 @@ func (w *LS) Fit(X [][]float64, y []float64) (*Fit, error) {
 	// Householder QR: for column j, reflect a[j:n, j] onto e1.
 	for j := 0; j < k; j++ {
 		cj := a[j*n : (j+1)*n]
-		norm := 0.0
-		for i := j; i < n; i++ {
-			norm = math.Hypot(norm, cj[i])
-		}
+		norm := norm2(cj[j:])
 		if norm < 1e-10 {
 			return nil, ErrSingular
 		}
@@ -203,6 +197,26 @@ func Leastsq(X [][]float64, y []float64) (Fit, error) {
 	out.StdErr = append([]float64(nil), f.StdErr...)
 	out.Resid = append([]float64(nil), f.Resid...)
 	return out, nil
+}
+
+// norm2 is the Euclidean norm of x, computed without overflow or underflow:
+// the values are divided by the largest magnitude before squaring.
+func norm2(x []float64) float64 {
+	big := 0.0
+	for _, v := range x {
+		if a := math.Abs(v); a > big || a != a {
+			big = a
+		}
+	}
+	if big == 0 || big != big || math.IsInf(big, 0) {
+		return big
+	}
+	s := 0.0
+	for _, v := range x {
+		r := v / big
+		s += r * r
+	}
+	return big * math.Sqrt(s)
 }
 
 func grow(s []float64, n int) []float64 {
