@@ -57,7 +57,7 @@ func p89Spec(cfg *core.Config, T int) (Spec, error) {
 	}
 	tb := cfg.BreakIndex
 	if tb == 0 {
-		return Spec{}, core.Errorf(id, core.ErrSettings, "p89 needs the break date (BreakIndex, the last observation of the old regime)")
+		return Spec{}, core.Errorf(id, core.ErrSettings, "p89 needs a known break date (--break-date, or break_date in the settings: a date or observation number, the last observation of the old regime)")
 	}
 	if tb < MinHead || tb > T-MinTail {
 		return Spec{}, core.Errorf(id, core.ErrSettings, "break date %d outside %d..%d", tb, MinHead, T-MinTail)

@@ -183,6 +183,11 @@ func ioResult(id string, y []float64, cfg *core.Config, spec *Spec, best Candida
 	if spec.LagRule != core.LagFixed {
 		res.Estimates["max_lags"] = float64(spec.MaxLags)
 	}
+	if cfg.Trend != core.TrendLinear && cfg.Trend != core.TrendConstant {
+		// TrendConstant is the zero value (not set); an explicit "none"
+		// cannot apply: these models contain a constant and a trend.
+		res.Warnings = append(res.Warnings, fmt.Sprintf("trend %q ignored: the %s regression contains a constant and a linear trend by construction", cfg.Trend.String(), id))
+	}
 	if len(path) > 0 {
 		res.Path = make([]schema.PathPoint, len(path))
 		for i, c := range path {
