@@ -5,7 +5,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"runtime/debug"
 	"strconv"
 	"strings"
 
@@ -272,9 +271,6 @@ func (r *runner) runWith(id string, trend core.Trend, y []float64, mod func(*cor
 		if p := recover(); p != nil {
 			r.series.Errors = append(r.series.Errors, schema.Error{Test: id,
 				Message: fmt.Sprintf("internal error (please report): %v", p)})
-			if debugPanics {
-				fmt.Printf("%s\n", debug.Stack())
-			}
 			res, err = nil, nil
 		}
 	}()
@@ -303,8 +299,6 @@ func (r *runner) runWith(id string, trend core.Trend, y []float64, mod func(*cor
 	r.series.Results = append(r.series.Results, *res)
 	return res, nil
 }
-
-var debugPanics = false
 
 // resolveIndex turns a date label or an observation number into a 1-based index.
 func resolveIndex(dates []string, freq, spec string, n int) (int, error) {
