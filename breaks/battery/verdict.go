@@ -83,10 +83,10 @@ func agrees(class string, r *schema.Result) bool {
 		switch class {
 		case ClassBreakStationary:
 			return r.Reject
-		case ClassStationary, ClassTrendStationary:
-			return !r.Reject
+		case ClassStationary, ClassTrendStationary, ClassUnitRoot:
+			return !r.Reject // a level break found in a series called break-free is a contradiction to show
 		}
-		return true // breaks in the level of a unit-root series are not evidence either way
+		return true
 	case "kpss":
 		if firstDiff {
 			return !r.Reject
