@@ -3,7 +3,9 @@ package breaks
 // Critical values of the Lee-Strazicich, Lumsdaine-Papell and
 // Clemente-Montanes-Reyes tests, and the p-values interpolated in the
 // simulated null quantile tables of lm_simtables.go (generated in-repo by
-// TestGenerateLMTables; see lm_tables_test.go).
+// TestGenerateLMTables; see lm_tables_test.go). The tables are at T=100;
+// for ls1 (and ls2 when lmSimGrids has it) at default settings a T-grid
+// (lmSimGrids) is interpolated linearly in 1/T at the sample size.
 //
 // The published values below are recalled (marked MEMORY in the project's
 // reference notes), not checked against the papers. They are only called
@@ -14,6 +16,7 @@ package breaks
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
@@ -79,6 +82,9 @@ type lmSimTable struct {
 	// rule, kmax = 8) or "0".
 	Lags string
 	Q    []float64
+	// interp, set only on a table built by lmAtT from a T-grid, says at
+	// which T and from which grid tables the quantiles were obtained.
+	interp string
 }
 
 // lmSimProbs are the probabilities of the tabulated quantiles.
@@ -121,6 +127,9 @@ func (s lmSimTable) crit() map[string]float64 {
 }
 
 func (s lmSimTable) describe() string {
+	if s.interp != "" {
+		return fmt.Sprintf("%s; Gaussian random walk, lags %s, trimming %g", s.interp, s.lagText(), s.Trim)
+	}
 	if s.Trim == 0 {
 		return fmt.Sprintf("T=%d, %d replications, seed %d, Gaussian random walk, lags %s, breaks at the tabulated fractions", s.T, s.Reps, s.Seed, s.lagText())
 	}
@@ -203,19 +212,103 @@ func lmLagsOf(cfg *core.Config) string {
 	return ""
 }
 
+// lmGrid returns the default-settings tables of variant at every simulated
+// T (lmSimTables at lmTableT and lmSimGrids at the other T), sorted by T;
+// nil when the variant has no T-grid.
+func lmGrid(variant string) []lmSimTable {
+	g, ok := lmSimGrids[variant]
+	if !ok {
+		return nil
+	}
+	out := append([]lmSimTable(nil), g...)
+	if t, ok := lmSimTables[variant]; ok {
+		out = append(out, t)
+	}
+	slices.SortFunc(out, func(a, b lmSimTable) int { return a.T - b.T })
+	return out
+}
+
+func lmGridText(g []lmSimTable) string {
+	s := ""
+	for i, t := range g {
+		if i > 0 {
+			s += ", "
+		}
+		s += fmt.Sprint(t.T)
+	}
+	return s
+}
+
+// lmAtT returns the quantiles of grid g (sorted by T) at sample size T,
+// interpolated linearly in 1/T between the neighbouring grid points; at a
+// grid point it returns that table's quantiles exactly. Outside the grid
+// the nearest end is used and outside is true.
+func lmAtT(g []lmSimTable, T int) (t lmSimTable, outside bool) {
+	n := len(g)
+	reps := func(t lmSimTable) string {
+		return fmt.Sprintf("T=%d (%d replications, seed %d)", t.T, t.Reps, t.Seed)
+	}
+	grid := "T-grid " + lmGridText(g)
+	pick := func(t lmSimTable, how string) lmSimTable {
+		t.Q = slices.Clone(t.Q)
+		t.interp = fmt.Sprintf("%s %s; table %s", how, grid, reps(t))
+		return t
+	}
+	switch {
+	case T <= g[0].T:
+		if T == g[0].T {
+			return pick(g[0], fmt.Sprintf("T=%d on the", T)), false
+		}
+		return pick(g[0], fmt.Sprintf("T=%d below the grid, nearest end of the", T)), true
+	case T >= g[n-1].T:
+		if T == g[n-1].T {
+			return pick(g[n-1], fmt.Sprintf("T=%d on the", T)), false
+		}
+		return pick(g[n-1], fmt.Sprintf("T=%d above the grid, nearest end of the", T)), true
+	}
+	i := 1
+	for g[i].T < T {
+		i++
+	}
+	a, b := g[i-1], g[i]
+	if b.T == T {
+		return pick(b, fmt.Sprintf("T=%d on the", T)), false
+	}
+	w := (1/float64(T) - 1/float64(a.T)) / (1/float64(b.T) - 1/float64(a.T))
+	t = a
+	t.T, t.Reps, t.Seed = T, min(a.Reps, b.Reps), 0
+	t.Q = make([]float64, len(a.Q))
+	for j := range t.Q {
+		t.Q[j] = (1-w)*a.Q[j] + w*b.Q[j]
+	}
+	t.interp = fmt.Sprintf("T=%d interpolated linearly in 1/T on the %s between tables %s and %s", T, grid, reps(a), reps(b))
+	return t, false
+}
+
 // lmTableFor returns the simulated table for a minimum-t search variant
 // under cfg: the paper-settings table (lags 0, trimming 0.10) when cfg
-// matches it, else the default-settings table (t-sig lags, trimming 0.15).
-// exact is false when cfg matches neither.
-func lmTableFor(variant string, cfg *core.Config) (key string, t lmSimTable, ok, exact bool) {
+// matches it, else the default-settings table (t-sig lags, trimming 0.15),
+// which for variants with a T-grid (lmSimGrids) is interpolated at sample
+// size T (T = 0: the T=lmTableT table). exact is false when cfg matches
+// neither; warn is set when T lies outside the grid.
+func lmTableFor(variant string, cfg *core.Config, T int) (key string, t lmSimTable, ok, exact bool, warn string) {
 	lags, trim := lmLagsOf(cfg), cfg.TrimOr()
 	if lags == "0" && math.Abs(trim-0.10) < 1e-12 {
 		if t, ok = lmSimTables[variant+"@0.10"]; ok {
-			return variant + "@0.10", t, true, true
+			return variant + "@0.10", t, true, true, ""
 		}
 	}
 	t, ok = lmSimTables[variant]
-	return variant, t, ok, ok && lags == t.Lags && math.Abs(trim-t.Trim) < 1e-12
+	exact = ok && lags == t.Lags && math.Abs(trim-t.Trim) < 1e-12
+	if g := lmGrid(variant); T > 0 && len(g) > 0 {
+		var outside bool
+		t, outside = lmAtT(g, T)
+		ok = true
+		if outside {
+			warn = fmt.Sprintf("sample size T=%d lies outside the simulated T-grid %s of the null table; the table at the nearest end T=%d was used (use --sims for a Monte Carlo p-value at this T)", T, lmGridText(g), t.T)
+		}
+	}
+	return variant, t, ok, exact, warn
 }
 
 // lmInference is what a test writes into its result.
@@ -303,13 +396,22 @@ func (inf *lmInference) lmNoTable(pub *lmPub) {
 // applySearchInference sets critical values, p-value and decision of a
 // minimum-t search variant; pub overrides the recalled row of lmPubs.
 func applySearchInference(res *schema.Result, variant, what string, cfg *core.Config, pub *lmPub) {
+	applySearchInferenceT(res, variant, what, cfg, pub, 0)
+}
+
+// applySearchInferenceT is applySearchInference at sample size T, used by
+// variants whose default-settings table has a T-grid (lmSimGrids).
+func applySearchInferenceT(res *schema.Result, variant, what string, cfg *core.Config, pub *lmPub, T int) {
 	var inf lmInference
 	if p, ok := lmPubs[variant]; ok && pub == nil {
 		pub = &p
 	}
-	key, t, ok, exact := lmTableFor(variant, cfg)
+	key, t, ok, exact, warn := lmTableFor(variant, cfg, T)
 	if ok && res.Statistic != nil {
 		inf.fromTable(*res.Statistic, key, t, exact, what, pub)
+		if warn != "" {
+			inf.warnings = append(inf.warnings, warn)
+		}
 	} else {
 		inf.lmNoTable(pub)
 	}
@@ -327,9 +429,9 @@ var lmBreakReproduced = map[string]bool{}
 // the break fractions λ; their recalled values, interpolated at the
 // estimated fractions (linearly in λ, or by inverse squared distance on the
 // (λ1, λ2) grid), are quoted with their reproduction status.
-func applyLMInference(res *schema.Result, id string, m lmModel, lams []float64, cfg *core.Config) {
+func applyLMInference(res *schema.Result, id string, m lmModel, lams []float64, cfg *core.Config, T int) {
 	if !m.slope {
-		applySearchInference(res, id+"/A", "the minimum LM statistic", cfg, nil)
+		applySearchInferenceT(res, id+"/A", "the minimum LM statistic", cfg, nil, T)
 		return
 	}
 	var pub lmCV
@@ -354,5 +456,5 @@ func applyLMInference(res *schema.Result, id string, m lmModel, lams []float64, 
 		cite = fmt.Sprintf("Lee & Strazicich (2003), Table 2, break model, T=100, interpolated at (λ1, λ2) = (%.3f, %.3f)", lams[0], lams[1])
 	}
 	p := &lmPub{cv: pub, cite: cite, key: id + "/C@0.10", reproduced: lmBreakReproduced[id]}
-	applySearchInference(res, id+"/C", "the minimum LM statistic", cfg, p)
+	applySearchInferenceT(res, id+"/C", "the minimum LM statistic", cfg, p, T)
 }

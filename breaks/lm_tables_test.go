@@ -19,7 +19,7 @@ import (
 
 var (
 	genLM     = flag.Bool("genlm", false, "regenerate lm_simtables.go (slow)")
-	genLMOnly = flag.String("genlmonly", "", "with -genlm: simulate only these comma-separated keys, copy the others from the current lm_simtables.go")
+	genLMOnly = flag.String("genlmonly", "", "with -genlm: simulate only these comma-separated keys (grid tables as key@T<T>, e.g. ls1/A@T200), copy the others from the current lm_simtables.go")
 )
 
 // lmTableSpec is one simulated table: the statistic under the Gaussian
@@ -38,6 +38,54 @@ const (
 	lmTableT    = 100
 	lmTableSeed = 20030601
 )
+
+// lmGridSpec adds tables of the default-settings spec key at the sample
+// sizes Ts (besides lmTableT) to lmSimGrids; the lookup interpolates them
+// linearly in 1/T (lmAtT). Replication r of the table at T of spec i (its
+// index in lmTableSpecs) draws from rand.NewPCG(lmTableSeed+1000*T+i, r).
+// With -genlmonly a grid table is named key@T<T>, e.g. ls1/A@T200.
+type lmGridSpec struct {
+	key  string
+	reps int
+	Ts   []int
+}
+
+var lmGridSpecs = []lmGridSpec{
+	{"ls1/A", 10000, []int{50, 200, 400}},
+	{"ls1/C", 10000, []int{50, 200, 400}},
+	// ls2 is O(T^2) per replication (about 0.5 s at T=400): grid 50-200.
+	{"ls2/A", 2000, []int{50, 200}},
+	{"ls2/C", 2000, []int{50, 200}},
+}
+
+func lmGridSeed(T, i int) uint64 { return uint64(lmTableSeed + 1000*T + i) }
+
+// writeLMTable writes one generated table literal.
+func writeLMTable(b *bytes.Buffer, prefix string, t lmSimTable) {
+	fmt.Fprintf(b, "\t%s{T: %d, Reps: %d, Seed: %d, Trim: %g, Lags: %q, Q: []float64{", prefix, t.T, t.Reps, t.Seed, t.Trim, t.Lags)
+	for j, q := range t.Q {
+		if j > 0 {
+			b.WriteString(", ")
+		}
+		fmt.Fprintf(b, "%.4f", q)
+	}
+	b.WriteString("}},\n")
+}
+
+// genLMTable simulates spec sp at T and returns the table.
+func genLMTable(t *testing.T, sp lmTableSpec, T, reps int, seed uint64) lmSimTable {
+	d, err := simulateLMTable(sp, T, reps, seed)
+	if err != nil {
+		t.Fatal(sp.key, err)
+	}
+	tb := lmSimTable{T: T, Reps: reps, Seed: seed, Trim: sp.trim, Lags: sp.lags}
+	for _, p := range lmSimProbs {
+		tb.Q = append(tb.Q, d.Quantile(p))
+	}
+	t.Logf("%s T=%d: 1%% %.3f (se %.3f) 5%% %.3f (se %.3f) 10%% %.3f (se %.3f), failed %d", sp.key, T,
+		d.Quantile(0.01), d.QuantileSE(0.01), d.Quantile(0.05), d.QuantileSE(0.05), d.Quantile(0.10), d.QuantileSE(0.10), d.Failed)
+	return tb
+}
 
 func lmRegistered(id string, shift core.Shift, trim float64, lags string) func(T int) func(y []float64) (float64, error) {
 	return func(T int) func(y []float64) (float64, error) {
@@ -107,36 +155,49 @@ func TestGenerateLMTables(t *testing.T) {
 			only[k] = true
 		}
 	}
+	index := map[string]int{}
 	for i, sp := range specs {
+		index[sp.key] = i
 		seed := uint64(lmTableSeed + i)
 		if old, ok := lmSimTables[sp.key]; ok && len(only) > 0 && !only[sp.key] {
 			if old.Seed != seed || old.Reps != sp.reps {
 				t.Fatalf("%s: stored table has seed %d reps %d, spec wants %d, %d: regenerate it", sp.key, old.Seed, old.Reps, seed, sp.reps)
 			}
-			fmt.Fprintf(&b, "\t%q: {T: %d, Reps: %d, Seed: %d, Trim: %g, Lags: %q, Q: []float64{", sp.key, old.T, old.Reps, old.Seed, old.Trim, old.Lags)
-			for j, q := range old.Q {
-				if j > 0 {
-					b.WriteString(", ")
-				}
-				fmt.Fprintf(&b, "%.4f", q)
-			}
-			b.WriteString("}},\n")
+			writeLMTable(&b, fmt.Sprintf("%q: ", sp.key), old)
 			continue
 		}
-		d, err := simulateLMTable(sp, lmTableT, sp.reps, seed)
-		if err != nil {
-			t.Fatal(sp.key, err)
+		writeLMTable(&b, fmt.Sprintf("%q: ", sp.key), genLMTable(t, sp, lmTableT, sp.reps, seed))
+	}
+	b.WriteString("}\n\n")
+	b.WriteString("// lmSimGrids holds, for the variants with a T-grid, the tables of the same\n// statistic and settings as lmSimTables at other sample sizes T; replication\n// r of the table at T of the spec with index i in lmTableSpecs draws from\n")
+	fmt.Fprintf(&b, "// rand.NewPCG(%d+1000*T+i, r).\n", lmTableSeed)
+	b.WriteString("var lmSimGrids = map[string][]lmSimTable{\n")
+	for _, g := range lmGridSpecs {
+		i, ok := index[g.key]
+		if !ok {
+			t.Fatalf("grid spec %s has no table spec", g.key)
 		}
-		fmt.Fprintf(&b, "\t%q: {T: %d, Reps: %d, Seed: %d, Trim: %g, Lags: %q, Q: []float64{", sp.key, lmTableT, sp.reps, seed, sp.trim, sp.lags)
-		for j, p := range lmSimProbs {
-			if j > 0 {
-				b.WriteString(", ")
+		sp := specs[i]
+		fmt.Fprintf(&b, "\t%q: {\n", g.key)
+		for _, T := range g.Ts {
+			seed := lmGridSeed(T, i)
+			name := fmt.Sprintf("%s@T%d", g.key, T)
+			if len(only) > 0 && !only[name] {
+				var old *lmSimTable
+				for _, o := range lmSimGrids[g.key] {
+					if o.T == T {
+						old = &o
+					}
+				}
+				if old == nil || old.Seed != seed || old.Reps != g.reps {
+					t.Fatalf("%s: stored grid table missing or with other seed/reps: regenerate it", name)
+				}
+				writeLMTable(&b, "", *old)
+				continue
 			}
-			fmt.Fprintf(&b, "%.4f", d.Quantile(p))
+			writeLMTable(&b, "", genLMTable(t, sp, T, g.reps, seed))
 		}
-		b.WriteString("}},\n")
-		t.Logf("%s: 1%% %.3f (se %.3f) 5%% %.3f (se %.3f) 10%% %.3f (se %.3f), failed %d", sp.key,
-			d.Quantile(0.01), d.QuantileSE(0.01), d.Quantile(0.05), d.QuantileSE(0.05), d.Quantile(0.10), d.QuantileSE(0.10), d.Failed)
+		b.WriteString("\t},\n")
 	}
 	b.WriteString("}\n")
 	src, err := format.Source(b.Bytes())

@@ -105,7 +105,7 @@ func runLS1(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result,
 	res.Breaks = []schema.Break{BreakAt(r.tbs[0], T, cfg)}
 	res.Path = r.path
 	lam := float64(r.tbs[0]) / float64(T)
-	applyLMInference(res, id, m, []float64{lam}, cfg)
+	applyLMInference(res, id, m, []float64{lam}, cfg, T)
 	if info, e := core.Lookup(id); e == nil {
 		if err := core.AddSimulated(ctx, info, T, cfg, res); err != nil {
 			return nil, WrapError(id, err)

@@ -58,7 +58,7 @@ func runLS2(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result,
 	res.Breaks = []schema.Break{BreakAt(r.tbs[0], T, cfg), BreakAt(r.tbs[1], T, cfg)}
 	res.Surface = lmSurface(r, cfg)
 	lams := []float64{float64(r.tbs[0]) / float64(T), float64(r.tbs[1]) / float64(T)}
-	applyLMInference(res, id, m, lams, cfg)
+	applyLMInference(res, id, m, lams, cfg, T)
 	if info, e := core.Lookup(id); e == nil {
 		if err := core.AddSimulated(ctx, info, T, cfg, res); err != nil {
 			return nil, WrapError(id, err)
