@@ -64,7 +64,7 @@ type Config struct {
 	Stdin io.Reader
 	// Lean drops the plotting data (break-search paths, statistic
 	// sequences, two-break surface rows) from the records, which are
-	// otherwise about ten times larger.
+	// otherwise about three times larger.
 	Lean bool
 }
 

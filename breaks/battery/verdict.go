@@ -373,7 +373,14 @@ func describe(r *schema.Result) string {
 	}
 	p := ""
 	if r.PValue != nil {
-		p = fmt.Sprintf(", p=%.3f", *r.PValue)
+		switch pv := *r.PValue; {
+		case pv <= 0.001:
+			p = ", p<0.001"
+		case pv >= 0.999:
+			p = ", p>0.999"
+		default:
+			p = fmt.Sprintf(", p=%.3f", pv)
+		}
 	}
 	return fmt.Sprintf("%s (%s): %s at %g (statistic %s%s)", name, spec, decision(r), r.Level, stat, p)
 }
@@ -515,7 +522,7 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 				add(&against, res)
 			}
 		}
-		v.Explanation = fmt.Sprintf("Stationary around %s at %s (dated by Bai-Perron): %s rejects a unit root once the break is allowed.", shiftWords(lead.Shift), breakText(bpBreaks), describeName(lead))
+		v.Explanation = fmt.Sprintf("Stationary around %s at %s (dated by Bai-Perron): %s rejects a unit root once the break is allowed.", shiftOf(lead), breakText(bpBreaks), describeName(lead))
 		if notRejects(ev.adfC) && notRejects(ev.adfT) {
 			v.Explanation += " The standard ADF test's failure to reject is explained by the shift (Perron 1989)."
 		}
@@ -546,7 +553,7 @@ func decide(ev *evidence, r *runner) *schema.Verdict {
 				add(&against, res)
 			}
 		}
-		what := shiftWords(lead.Shift)
+		what := shiftOf(lead)
 		v.Explanation = fmt.Sprintf("Stationary around %s after %s: %s rejects a unit root once the break is allowed.", what, breakText(lead.Breaks), describeName(lead))
 		if notRejects(ev.adfC) || notRejects(ev.adfT) {
 			v.Explanation += " The standard ADF test's failure to reject is explained by the shift (Perron 1989)."
@@ -735,6 +742,18 @@ func describeName(r *schema.Result) string {
 		return s[:i]
 	}
 	return s
+}
+
+// shiftOf describes the break a test found: a model with a level and a
+// slope shift whose slope term is not significant (|t| < 2) is described as
+// a level shift.
+func shiftOf(r *schema.Result) string {
+	if r.Shift == "level+slope" {
+		if t, ok := r.Estimates["t_slope"]; ok && math.Abs(t) < 2 {
+			return "a level shift (the slope change allowed by the test is not significant)"
+		}
+	}
+	return shiftWords(r.Shift)
 }
 
 func shiftWords(shift string) string {

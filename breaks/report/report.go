@@ -356,13 +356,13 @@ func settingsNotes(s *schema.Settings) []string {
 	if trend == "" || trend == "auto" {
 		trend = "chosen per test (auto)"
 	}
-	lag := "each method's rule (BIC for ADF, MAIC for DF-GLS and the M-tests, t-sig for break tests)"
+	lag := "each method's rule (BIC for ADF and py, MAIC for DF-GLS and the M-tests, t-sig for the other break tests, 0 for sadf/gsadf)"
 	if s.Lags != nil {
 		lag = "fixed at " + strconv.Itoa(*s.Lags)
 	} else if s.LagRule != "" {
 		lag = s.LagRule
 	}
-	maxl := "Schwert (1989), floor(12 (T/100)^(1/4))"
+	maxl := "Schwert (1989), floor(12 (T/100)^(1/4)); 8 for break tests"
 	if s.MaxLags != nil {
 		maxl = strconv.Itoa(*s.MaxLags)
 	}
@@ -376,7 +376,7 @@ func settingsNotes(s *schema.Settings) []string {
 	}
 	shift := s.Shift
 	if shift == "" {
-		shift = "level"
+		shift = "auto (level; level+slope for a trending series in the verdict's break tests)"
 	}
 	sims := "none"
 	if s.Sims > 0 {

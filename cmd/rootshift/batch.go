@@ -56,7 +56,7 @@ func (e *env) batch(args []string) int {
 	fs.StringVar(&csvPath, "csv", "", "also write the summary CSV (one row per series and test) to this `file`")
 	fs.StringVar(&verdictPath, "verdicts", "", "also write the verdict table (CSV, one row per series) to this `file`")
 	fs.BoolVar(&quiet, "quiet", false, "no progress on standard error")
-	fs.BoolVar(&cfg.Lean, "lean", false, "leave out plotting data (search paths, sequences): records about ten times smaller")
+	fs.BoolVar(&cfg.Lean, "lean", false, "leave out plotting data (search paths, sequences): records about a third the size")
 	inputs, err := parseInterleaved(fs, args)
 	if err != nil {
 		return e.usageExit(err)
