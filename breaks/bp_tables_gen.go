@@ -46,14 +46,10 @@ import (
 
 var levels = []float64{0.01, 0.025, 0.05, 0.10}
 
+// quantile is the p-quantile of the sorted sample s, by the simulation
+// engine's own rule (core.Distribution.Quantile, type-7 interpolation).
 func quantile(s []float64, p float64) float64 {
-	n := len(s)
-	h := p * float64(n-1)
-	i := int(math.Floor(h))
-	if i >= n-1 {
-		return s[n-1]
-	}
-	return s[i] + (h-float64(i))*(s[i+1]-s[i])
+	return (&core.Distribution{Sorted: s}).Quantile(p)
 }
 
 func row(v [4]float64) string {

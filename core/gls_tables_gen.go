@@ -198,11 +198,8 @@ func simulate(det core.Trend, T, reps int, seed uint64) [][]float64 {
 }
 
 // quantile is the type-7 sample quantile of sorted x.
+// quantile is the p-quantile of the sorted sample x, by the simulation
+// engine's own rule (core.Distribution.Quantile, type-7 interpolation).
 func quantile(x []float64, p float64) float64 {
-	h := p * float64(len(x)-1)
-	i := int(math.Floor(h))
-	if i >= len(x)-1 {
-		return x[len(x)-1]
-	}
-	return x[i] + (h-float64(i))*(x[i+1]-x[i])
+	return (&core.Distribution{Sorted: x}).Quantile(p)
 }
