@@ -138,10 +138,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"runtime"
 	"strings"
-	"sync"
-	"sync/atomic"
 
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
@@ -1306,52 +1303,28 @@ func BPSimulateLimit(ctx context.Context, spec BPLimitSpec) ([][]float64, error)
 	if h < q+1 || spec.Reps <= 0 || spec.M < 1 || (spec.M+1)*h > spec.T {
 		return nil, fmt.Errorf("%w: bp limit simulation T=%d trim=%g M=%d reps=%d", core.ErrSettings, spec.T, spec.Trim, spec.M, spec.Reps)
 	}
-	workers := spec.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
-	out := make([][]float64, spec.Reps)
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for g := 0; g < workers; g++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			var w bpWork
-			y := make([]float64, spec.T)
-			pcg := rand.NewPCG(0, 0)
-			r := rand.New(pcg)
-			for {
-				i := int(next.Add(1)) - 1
-				if i >= spec.Reps || ctx.Err() != nil {
-					return
-				}
-				pcg.Seed(spec.Seed, uint64(i))
-				for t := range y {
-					y[t] = r.NormFloat64()
-				}
-				// Unit variance known: no standardisation of y.
-				w.loadRaw(y, q)
-				s0 := w.ssr(0, spec.T)
-				if spec.SupF1Only {
-					_, s1 := w.bestSplit(0, spec.T, h)
-					out[i] = []float64{(s0 - s1) / float64(q)}
-					continue
-				}
-				M := w.dp(h, spec.M)
-				d := make([]float64, M)
-				for k := 1; k <= M; k++ {
-					d[k-1] = (s0 - w.opt[k][spec.T]) / float64(k*q)
-				}
-				out[i] = d
+	return core.SimulateRows(ctx, core.SimSpec{Reps: spec.Reps, Seed: spec.Seed, Workers: spec.Workers}, func() func(r *rand.Rand) []float64 {
+		var w bpWork
+		y := make([]float64, spec.T)
+		return func(r *rand.Rand) []float64 {
+			for t := range y {
+				y[t] = r.NormFloat64()
 			}
-		}()
-	}
-	wg.Wait()
-	if err := ctx.Err(); err != nil {
-		return nil, fmt.Errorf("%w: %v", core.ErrCancelled, err)
-	}
-	return out, nil
+			// Unit variance known: no standardisation of y.
+			w.loadRaw(y, q)
+			s0 := w.ssr(0, spec.T)
+			if spec.SupF1Only {
+				_, s1 := w.bestSplit(0, spec.T, h)
+				return []float64{(s0 - s1) / float64(q)}
+			}
+			M := w.dp(h, spec.M)
+			d := make([]float64, M)
+			for k := 1; k <= M; k++ {
+				d[k-1] = (s0 - w.opt[k][spec.T]) / float64(k*q)
+			}
+			return d
+		}
+	})
 }
 
 // BPSimulateFinite simulates the null distributions of the statistics
@@ -1376,58 +1349,35 @@ func BPSimulateFinite(ctx context.Context, spec BPLimitSpec, cfg *core.Config) (
 	if spec.Reps <= 0 {
 		return nil, fmt.Errorf("%w: bp finite simulation reps=%d", core.ErrSettings, spec.Reps)
 	}
-	workers := spec.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
-	out := make([][]float64, spec.Reps)
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for g := 0; g < workers; g++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			w := &bpWork{kernel: c.Kernel, rule: c.BandwidthRule, bwFix: c.Bandwidth}
-			y := make([]float64, spec.T)
-			pcg := rand.NewPCG(0, 0)
-			r := rand.New(pcg)
-			for {
-				i := int(next.Add(1)) - 1
-				if i >= spec.Reps || ctx.Err() != nil {
-					return
-				}
-				pcg.Seed(spec.Seed, uint64(i))
-				for t := range y {
-					y[t] = r.NormFloat64()
-				}
-				s := w.compute(y, &st, false)
-				row := make([]float64, 0, 2*st.M-1)
-				for _, v := range s.supF {
-					if math.IsNaN(v) {
-						v = math.Inf(-1)
-					}
-					row = append(row, v)
-				}
-				for l := 1; l < st.M; l++ {
-					dates := make([]int, l)
-					for j := range dates {
-						dates[j] = int(math.Round(float64((j+1)*spec.T) / float64(l+1)))
-					}
-					v := w.seqStat(dates)
-					if math.IsNaN(v) {
-						v = math.Inf(-1)
-					}
-					row = append(row, v)
-				}
-				out[i] = row
+	return core.SimulateRows(ctx, core.SimSpec{Reps: spec.Reps, Seed: spec.Seed, Workers: spec.Workers}, func() func(r *rand.Rand) []float64 {
+		w := &bpWork{kernel: c.Kernel, rule: c.BandwidthRule, bwFix: c.Bandwidth}
+		y := make([]float64, spec.T)
+		return func(r *rand.Rand) []float64 {
+			for t := range y {
+				y[t] = r.NormFloat64()
 			}
-		}()
-	}
-	wg.Wait()
-	if err := ctx.Err(); err != nil {
-		return nil, fmt.Errorf("%w: %v", core.ErrCancelled, err)
-	}
-	return out, nil
+			s := w.compute(y, &st, false)
+			row := make([]float64, 0, 2*st.M-1)
+			for _, v := range s.supF {
+				if math.IsNaN(v) {
+					v = math.Inf(-1)
+				}
+				row = append(row, v)
+			}
+			for l := 1; l < st.M; l++ {
+				dates := make([]int, l)
+				for j := range dates {
+					dates[j] = int(math.Round(float64((j+1)*spec.T) / float64(l+1)))
+				}
+				v := w.seqStat(dates)
+				if math.IsNaN(v) {
+					v = math.Inf(-1)
+				}
+				row = append(row, v)
+			}
+			return row
+		}
+	})
 }
 
 // loadRaw fills the prefix sums from y as given (no standardisation).

@@ -102,10 +102,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
-	"runtime"
 	"strings"
-	"sync"
-	"sync/atomic"
 
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
@@ -794,43 +791,28 @@ func PYSimulate(ctx context.Context, spec PYSimSpec) ([]float64, error) {
 		cfg = *spec.Cfg
 	}
 	cfg.Shift, cfg.Trim = spec.Shift, spec.Trim
-	workers := spec.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
-	out := make([]float64, spec.Reps)
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for g := 0; g < workers; g++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			stat := newPYStatTable(spec.T, &cfg)
-			y := make([]float64, spec.T)
-			pcg := rand.NewPCG(0, 0)
-			r := rand.New(pcg)
-			for {
-				i := int(next.Add(1)) - 1
-				if i >= spec.Reps || ctx.Err() != nil {
-					return
-				}
-				pcg.Seed(spec.Seed, uint64(i))
-				if spec.I1 {
-					core.RandomWalk(y, r)
-				} else {
-					core.WhiteNoise(y, r)
-				}
-				v, err := stat(y)
-				if err != nil {
-					v = math.NaN()
-				}
-				out[i] = v
+	rows, err := core.SimulateRows(ctx, core.SimSpec{Reps: spec.Reps, Seed: spec.Seed, Workers: spec.Workers}, func() func(r *rand.Rand) []float64 {
+		stat := newPYStatTable(spec.T, &cfg)
+		y := make([]float64, spec.T)
+		return func(r *rand.Rand) []float64 {
+			if spec.I1 {
+				core.RandomWalk(y, r)
+			} else {
+				core.WhiteNoise(y, r)
 			}
-		}()
+			v, err := stat(y)
+			if err != nil {
+				v = math.NaN()
+			}
+			return []float64{v}
+		}
+	})
+	if err != nil {
+		return nil, err
 	}
-	wg.Wait()
-	if err := ctx.Err(); err != nil {
-		return nil, fmt.Errorf("%w: %v", core.ErrCancelled, err)
+	out := make([]float64, len(rows))
+	for i, row := range rows {
+		out[i] = row[0]
 	}
 	return out, nil
 }

@@ -229,3 +229,52 @@ func ApplyDistribution(d *Distribution, T int, res *schema.Result) {
 		res.SimMethod += fmt.Sprintf(", %d failed replications dropped", d.Failed)
 	}
 }
+
+// SimulateRows runs spec.Reps replications that each return a row of
+// numbers (several statistics of one simulated sample), in parallel, with
+// the same seeding rule as Simulate: replication r draws from
+// rand.NewPCG(spec.Seed, r), so the rows are identical whatever the number
+// of workers. newRep is called once per worker. Rows are returned in
+// replication order; a replication's row is kept as returned (it may hold
+// NaN or ±Inf). It returns ErrCancelled (wrapped) when ctx is cancelled.
+func SimulateRows(ctx context.Context, spec SimSpec, newRep func() func(r *rand.Rand) []float64) ([][]float64, error) {
+	if spec.Reps <= 0 {
+		return nil, fmt.Errorf("%w: simulation needs at least one replication", ErrSettings)
+	}
+	workers := spec.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	workers = min(workers, spec.Reps)
+	out := make([][]float64, spec.Reps)
+	var next, done atomic.Int64
+	var progMu sync.Mutex
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			rep := newRep()
+			pcg := rand.NewPCG(0, 0)
+			r := rand.New(pcg)
+			for ctx.Err() == nil {
+				i := int(next.Add(1)) - 1
+				if i >= spec.Reps {
+					return
+				}
+				pcg.Seed(spec.Seed, uint64(i))
+				out[i] = rep(r)
+				if d := done.Add(1); spec.Progress != nil {
+					progMu.Lock()
+					spec.Progress(int(d), spec.Reps)
+					progMu.Unlock()
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	if err := ctx.Err(); err != nil {
+		return nil, fmt.Errorf("%w: %v", ErrCancelled, err)
+	}
+	return out, nil
+}
