@@ -205,6 +205,64 @@ type Verdict struct {
 	Against     []string     `json:"against,omitempty"`
 	// Tests lists the test ids the verdict used.
 	Tests []string `json:"tests,omitempty"`
+	// Scale is the scale the procedure worked on: "levels" or "logs".
+	Scale string `json:"scale,omitempty"`
+	// Stages holds each stage of the decision procedure in the order it ran,
+	// with its evidence and its decision.
+	Stages []Stage `json:"stages,omitempty"`
+	// Context lists results that were computed but did not decide the class
+	// (shown for information only).
+	Context []string `json:"context,omitempty"`
+	// Reliability gives the procedure's own simulated error rates at the
+	// series' length.
+	Reliability *Reliability `json:"reliability,omitempty"`
+}
+
+// Stage is one stage of the verdict procedure.
+type Stage struct {
+	// Name is one of: scale, explosive, trend, unit-root, breaks, order, seasonality.
+	Name string `json:"name"`
+	// Decision is the stage's answer in a few words.
+	Decision string `json:"decision"`
+	// Method names the test and inference used, with its citation.
+	Method string `json:"method,omitempty"`
+	// Statistic and PValue of the stage's test, when it has one.
+	Statistic *float64 `json:"statistic,omitempty"`
+	PValue    *float64 `json:"p_value,omitempty"`
+	// Level is the significance level the stage used.
+	Level float64 `json:"level,omitempty"`
+	// Evidence lists the results the stage read, in words.
+	Evidence []string `json:"evidence,omitempty"`
+}
+
+// Reliability is the verdict procedure's simulated error rates at a sample size.
+type Reliability struct {
+	// T is the sample size the rates were simulated at (the nearest tabulated
+	// size, or the series' own when recomputed).
+	T int `json:"t"`
+	// Source is "table" (committed, regenerable by one command) or "simulated"
+	// (recomputed for this run).
+	Source string `json:"source"`
+	// Headline is one sentence a report can print beside the verdict.
+	Headline string `json:"headline"`
+	// WrongRate is the largest simulated rate at which a process of another
+	// class receives this verdict's class (nil when not tabulated).
+	WrongRate *float64 `json:"wrong_rate,omitempty"`
+	// Rates lists the simulated rates behind the headline.
+	Rates []Rate `json:"rates"`
+}
+
+// Rate is one simulated rate of the verdict procedure.
+type Rate struct {
+	// Process describes the simulated process.
+	Process string `json:"process"`
+	// Truth is the class the process was built to have.
+	Truth string `json:"truth"`
+	// Outcome is the verdict outcome counted (a class, or "right").
+	Outcome string `json:"outcome"`
+	// Rate is the share of draws with that outcome; Draws their number.
+	Rate  float64 `json:"rate"`
+	Draws int     `json:"draws"`
 }
 
 // WindowCheck reports the analyst's suspected window against the breaks found.
@@ -213,6 +271,15 @@ type WindowCheck struct {
 	To          string  `json:"to"`
 	BreakInside bool    `json:"break_inside"`
 	Known       *Result `json:"known_break_test,omitempty"`
+	// FromIndex and ToIndex are the window's first and last observations (1-based).
+	FromIndex int `json:"from_index,omitempty"`
+	ToIndex   int `json:"to_index,omitempty"`
+	// Test is the break-aware unit-root test whose break search was
+	// restricted to the window, with a p-value from critical values simulated
+	// for that restricted search.
+	Test *Result `json:"test,omitempty"`
+	// Answer says in words whether a break inside the window was found.
+	Answer string `json:"answer,omitempty"`
 }
 
 // F returns a pointer to a finite x, or nil for NaN and ±Inf.
