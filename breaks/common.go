@@ -269,3 +269,22 @@ func CheckSeries(test string, y []float64, minT int) error {
 	}
 	return core.Errorf(test, core.ErrConstant, "all %d observations equal %g", len(y), y[0])
 }
+
+// restrictCandidates intersects the candidate range lo..hi with
+// cfg.BreakFrom..cfg.BreakTo (each ignored when 0). The error wraps
+// core.ErrSettings when the intersection is empty.
+func restrictCandidates(lo, hi int, cfg *core.Config) (int, int, error) {
+	if cfg == nil {
+		return lo, hi, nil
+	}
+	if cfg.BreakFrom > 0 {
+		lo = max(lo, cfg.BreakFrom)
+	}
+	if cfg.BreakTo > 0 {
+		hi = min(hi, cfg.BreakTo)
+	}
+	if lo > hi {
+		return lo, hi, fmt.Errorf("%w: no break candidate inside observations %d..%d after trimming", core.ErrSettings, cfg.BreakFrom, cfg.BreakTo)
+	}
+	return lo, hi, nil
+}

@@ -90,6 +90,9 @@ func ioSpec(id string, cfg *core.Config, T int, dummy bool) (Spec, error) {
 	if err != nil {
 		return Spec{}, WrapError(id, err)
 	}
+	if lo, hi, err = restrictCandidates(lo, hi, cfg); err != nil {
+		return Spec{}, WrapError(id, err)
+	}
 	return Spec{Trend: core.TrendLinear, Terms: terms, LagRule: rule, Lags: lags, MaxLags: kmax, Lo: lo, Hi: hi}, nil
 }
 

@@ -234,6 +234,11 @@ type Config struct {
 	Trim float64
 	// BreakIndex is a known break TB (1-based), used by tests with a given date.
 	BreakIndex int
+	// BreakFrom and BreakTo, when positive, restrict the candidate break
+	// dates TB of the one-break searches (za, pio) to BreakFrom..BreakTo
+	// (1-based, inclusive) within the trimmed range; 0 leaves that end at
+	// the trimming bound.
+	BreakFrom, BreakTo int
 	// BreakRule picks the break date in the pio and pao searches (Perron 1997):
 	// 0 (default) minimises the unit-root t-ratio, 1 maximises |t| on the
 	// level-shift coefficient, 2 maximises |t| on the slope-shift coefficient.

@@ -10,6 +10,7 @@ import (
 
 	// Registers the break-aware tests with core's registry.
 	_ "github.com/rootshift/rootshift/breaks"
+	"github.com/rootshift/rootshift/breaks/decide"
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/dataset"
 	"github.com/rootshift/rootshift/core/schema"
@@ -190,12 +191,50 @@ func AnalyzeSeries(ctx context.Context, in dataset.Series, s schema.Settings, op
 			}
 		}
 	}
-	if len(s.Tests) == 0 || len(s.VerdictTests) > 0 {
+	if len(s.Tests) == 0 || s.Verdict {
 		if err := r.verdict(); err != nil {
 			return sr, err
 		}
 	}
 	return sr, nil
+}
+
+// verdict runs the staged decision procedure (package decide) and records
+// its results, errors and verdict in the series.
+func (r *runner) verdict() error {
+	var prog func(done, total int)
+	if r.opt.Progress != nil {
+		name := r.series.Name
+		prog = func(done, total int) {
+			r.opt.Progress(Progress{Stage: "simulation", Series: name, Test: "verdict reliability", Done: done, Total: total})
+		}
+		r.opt.Progress(Progress{Stage: "test", Series: name, Test: "verdict"})
+	}
+	out, err := decide.Run(r.ctx, decide.Input{
+		Name: r.series.Name, Y: r.y, Dates: r.dates, Frequency: r.freq,
+		Transformed: r.s.Transform != "", Settings: r.s, Progress: prog,
+	})
+	if err != nil {
+		var we *decide.WindowError
+		if errors.As(err, &we) {
+			return &UsageError{Field: "window", Err: err}
+		}
+		if errors.Is(err, core.ErrCancelled) || r.ctx.Err() != nil {
+			return fmt.Errorf("%w: %v", core.ErrCancelled, r.ctx.Err())
+		}
+		r.series.Errors = append(r.series.Errors, schema.Error{Test: "verdict", Message: err.Error()})
+		return nil
+	}
+	for i := range out.Results {
+		sanitize(&out.Results[i])
+		r.series.Results = append(r.series.Results, out.Results[i])
+	}
+	r.series.Errors = append(r.series.Errors, out.Errors...)
+	if v := out.Verdict; v != nil && v.Window != nil && v.Window.Test != nil {
+		sanitize(v.Window.Test)
+	}
+	r.series.Verdict = out.Verdict
+	return nil
 }
 
 // runner runs tests on one series and keeps what the verdict needs.

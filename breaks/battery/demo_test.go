@@ -11,6 +11,7 @@ import (
 	"os"
 	"testing"
 
+	"github.com/rootshift/rootshift/breaks/decide"
 	"github.com/rootshift/rootshift/core/schema"
 )
 
@@ -37,13 +38,13 @@ func TestDemoVerdicts(t *testing.T) {
 	}
 	// The class each invented series was generated to have.
 	want := map[string][]string{
-		"freight_volume":  {ClassUnitRoot},
-		"consumer_prices": {ClassUnitRoot},
-		"power_demand":    {ClassTrendStationary},
-		"jobless_rate":    {ClassBreakStationary},
-		"credit_spread":   {ClassStationary},
-		"housing_index":   {ClassExplosive},
-		"visitor_nights":  {ClassUnitRootBreaks},
+		"freight_volume":  {decide.ClassUnitRoot},
+		"consumer_prices": {decide.ClassUnitRoot},
+		"power_demand":    {decide.ClassTrendStationary},
+		"jobless_rate":    {decide.ClassBreakStationary},
+		"credit_spread":   {decide.ClassStationary},
+		"housing_index":   {decide.ClassExplosive},
+		"visitor_nights":  {decide.ClassUnitRootBreaks},
 	}
 	for _, sr := range doc.Series {
 		if len(sr.Errors) > 0 {
@@ -54,7 +55,7 @@ func TestDemoVerdicts(t *testing.T) {
 			t.Errorf("%s: no verdict", sr.Name)
 			continue
 		}
-		t.Logf("%-16s %-18s order=%v transform=%-16s breaks=%v\n    %s", sr.Name, v.Class, deref(v.Order), v.Transform, breakText(v.Breaks), v.Explanation)
+		t.Logf("%-16s %-18s order=%v transform=%-16s breaks=%v\n    %s", sr.Name, v.Class, deref(v.Order), v.Transform, v.Breaks, v.Explanation)
 		ok := false
 		for _, c := range want[sr.Name] {
 			ok = ok || c == v.Class

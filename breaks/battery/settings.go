@@ -34,7 +34,7 @@ var Transforms = []string{"", "log", "diff", "diff2", "logdiff"}
 // outside their documented sets or ranges.
 func Validate(s schema.Settings) error {
 	ids := core.IDs()
-	for _, id := range append(append([]string(nil), s.Tests...), s.VerdictTests...) {
+	for _, id := range s.Tests {
 		if !slices.Contains(ids, id) {
 			return usage("tests", "unknown test id %q (known: %s)", id, strings.Join(ids, ", "))
 		}

@@ -63,7 +63,7 @@ func settingsFlags(fs *flag.FlagSet, s *schema.Settings) {
 	// A word in backquotes is the placeholder PrintDefaults shows after the
 	// flag name ("--tests IDS"); other flags of custom types would show "value".
 	fs.Var(listFlag{&s.Tests}, "tests", "comma-separated test `ids` (default: the default battery and the verdict); \"rootshift tests\" lists them")
-	fs.Var(listFlag{&s.VerdictTests}, "verdict-tests", "test `ids` the verdict may use (default: adf,kpss,za,ls1,bp,sadf)")
+	fs.BoolVar(&s.Verdict, "verdict", false, "also give the verdict when --tests lists tests (without --tests the verdict is always given)")
 	fs.StringVar(&s.Trend, "trend", "", "deterministic terms: none, constant, linear (default auto: each test's own)")
 	fs.Var(intPtr{&s.Lags}, "lags", "fixed augmentation lags `K` (default: chosen by --lag-rule)")
 	fs.StringVar(&s.LagRule, "lag-rule", "", "lag selection: aic, bic, maic, tsig (default: each method's own rule)")

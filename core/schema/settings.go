@@ -9,10 +9,10 @@ type Settings struct {
 	// Tests lists test ids to run. Empty: the default battery, which also
 	// fills each series' verdict.
 	Tests []string `json:"tests,omitempty"`
-	// VerdictTests lists the tests the verdict may use; empty: the default
-	// battery's set (see package battery). Setting it runs those tests and
-	// the verdict even when Tests is also set.
-	VerdictTests []string `json:"verdict_tests,omitempty"`
+	// Verdict asks for the verdict also when Tests lists tests (without
+	// Tests the verdict is always given). The verdict's stages and their
+	// tests are fixed (package decide).
+	Verdict bool `json:"verdict,omitempty"`
 	// Trend is "auto" (default, empty): each test in the battery uses the
 	// deterministic terms the verdict needs; or "none", "constant", "linear"
 	// to force one for every test.

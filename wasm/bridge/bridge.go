@@ -12,6 +12,7 @@ import (
 	"sync"
 
 	"github.com/rootshift/rootshift/breaks/battery"
+	"github.com/rootshift/rootshift/breaks/decide"
 	"github.com/rootshift/rootshift/breaks/report"
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/dataset"
@@ -333,7 +334,7 @@ func AboutInfo() string {
 	return Call(func() (any, error) {
 		a := About{
 			Version: battery.Version, Schema: schema.ID,
-			VerdictTests: battery.DefaultVerdictTests, Transforms: battery.Transforms,
+			VerdictTests: decide.Tests, Transforms: battery.Transforms,
 			DemoName: battery.DemoName, DemoDescription: battery.DemoDescription, Caution: schema.Caution,
 			Tests: []TestInfo{},
 		}
@@ -343,7 +344,7 @@ func AboutInfo() string {
 				continue
 			}
 			in := false
-			for _, v := range battery.DefaultVerdictTests {
+			for _, v := range decide.Tests {
 				in = in || v == id
 			}
 			a.Tests = append(a.Tests, TestInfo{ID: id, Name: info.Name, Null: info.Null, Tail: info.Tail, Citation: info.Citation, Verdict: in})

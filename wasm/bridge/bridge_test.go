@@ -17,6 +17,7 @@ import (
 	"testing"
 
 	"github.com/rootshift/rootshift/breaks/battery"
+	"github.com/rootshift/rootshift/breaks/decide"
 	"github.com/rootshift/rootshift/breaks/report"
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/dataset"
@@ -346,8 +347,8 @@ func TestAboutAndDemo(t *testing.T) {
 			t.Errorf("test %s lacks a name or null", ti.ID)
 		}
 	}
-	if verdict != len(battery.DefaultVerdictTests) {
-		t.Errorf("%d tests flagged for the verdict, want %d", verdict, len(battery.DefaultVerdictTests))
+	if verdict != len(decide.Tests) {
+		t.Errorf("%d tests flagged for the verdict, want %d", verdict, len(decide.Tests))
 	}
 	r = decode(t, Demo())
 	var d map[string]string

@@ -1,0 +1,196 @@
+package decide
+
+// Stage 6: breaks and trend, on the scale where their inference holds.
+//
+// Once stage 5 has decided, breaks are dated by Bai & Perron (1998, 2003)
+// where the Bai-Perron tests are valid:
+//
+//   - a series found stationary: breaks in the level (and, for a trending
+//     series, the slope) of the series itself; the trend is judged by the
+//     HAC t-ratio of the slope in y_t = a + b t + u_t (Newey & West 1987
+//     Bartlett weights with the Newey & West 1994 bandwidth), valid for
+//     stationary u;
+//   - a series found integrated: breaks in the mean of the first difference,
+//     i.e. changes in drift (a crisis that turns growth into decline); the
+//     drift is judged by the HAC t-ratio of the mean of Δy, valid for an
+//     integrated series.
+//
+// Dating level breaks in the levels of an integrated series would find
+// spurious breaks (Nunes, Kuan & Newbold 1995); this is why the stage comes
+// after the unit-root decision and not before.
+
+import (
+	"context"
+	"fmt"
+	"math"
+
+	"github.com/rootshift/rootshift/core"
+	"github.com/rootshift/rootshift/core/schema"
+)
+
+type detOut struct {
+	stage    schema.Stage
+	breaks   []schema.Break
+	trending bool // a significant slope (stationary) or drift (integrated)
+	tstat    float64
+	bp       *schema.Result
+}
+
+// zCrit is the two-sided normal critical value at level a.
+func zCrit(a float64) float64 { return math.Sqrt2 * math.Erfinv(1-a) }
+
+func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, error) {
+	out := &detOut{stage: schema.Stage{Name: "breaks", Level: w.alpha}}
+	zc := zCrit(w.alpha)
+	var target []float64
+	trend := core.TrendConstant
+	if stationary {
+		out.stage.Method = "Bai & Perron (1998, 2003) on the levels of a stationary series; slope by a HAC t-ratio (Newey & West 1987, 1994)"
+		out.tstat = hacSlopeT(w.z)
+		out.trending = math.Abs(out.tstat) > zc
+		if out.trending {
+			trend = core.TrendLinear
+		}
+		target = w.z
+		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("slope HAC t = %.2f (%s at %g)", out.tstat, signif(out.trending), w.alpha))
+	} else {
+		out.stage.Method = "Bai & Perron (1998, 2003) on the first difference of an integrated series (changes in drift); drift by a HAC t-ratio of the mean difference (Newey & West 1987, 1994)"
+		target = diff(w.z)
+		out.tstat = hacMeanT(target)
+		out.trending = math.Abs(out.tstat) > zc
+		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("drift HAC t = %.2f (%s at %g)", out.tstat, signif(out.trending), w.alpha))
+	}
+	cfg := w.config(trend)
+	res, err := w.run(ctx, "bp", target, cfg)
+	if err != nil {
+		return nil, err
+	}
+	if res == nil {
+		out.stage.Decision = "breaks not tested"
+		return out, nil
+	}
+	if !stationary {
+		res.Variant = "first difference"
+		if w.logs {
+			res.Variant = "first difference of logs"
+		}
+		// Break dates in Δy at position i (t = i+2) are TB = i+1 in the
+		// levels: the last observation of the old regime.
+		for i := range res.Breaks {
+			res.Breaks[i] = shiftBreak(res.Breaks[i], 1, len(w.z), w.in.Dates)
+		}
+	} else if w.logs {
+		res.Variant = "log levels"
+	}
+	out.bp = res
+	if res.Reject && len(res.Breaks) > 0 {
+		out.breaks = append(out.breaks, res.Breaks...)
+		what := "breaks in level"
+		if trend == core.TrendLinear {
+			what = "breaks in level and slope"
+		}
+		if !stationary {
+			what = "changes in drift"
+		}
+		out.stage.Decision = fmt.Sprintf("%d %s", len(res.Breaks), what)
+		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("Bai-Perron finds %s at %s", what, breakList(out.breaks)))
+	} else {
+		out.stage.Decision = "no break"
+		out.stage.Evidence = append(out.stage.Evidence, "Bai-Perron finds no break at this level")
+	}
+	return out, nil
+}
+
+func signif(b bool) string {
+	if b {
+		return "significant"
+	}
+	return "not significant"
+}
+
+// shiftBreak moves a break found on the first difference to the levels'
+// numbering.
+func shiftBreak(b schema.Break, by, T int, dates []string) schema.Break {
+	b.Index += by
+	if b.Lower > 0 {
+		b.Lower += by
+	}
+	if b.Upper > 0 {
+		b.Upper += by
+	}
+	b.Fraction = float64(b.Index) / float64(T)
+	b.Date, b.LowerDate, b.UpperDate = "", "", ""
+	if len(dates) == T {
+		at := func(i int) string {
+			if i >= 1 && i <= T {
+				return dates[i-1]
+			}
+			return ""
+		}
+		b.Date = at(b.Index)
+		if b.Lower > 0 {
+			b.LowerDate = at(b.Lower)
+		}
+		if b.Upper > 0 {
+			b.UpperDate = at(b.Upper)
+		}
+	}
+	return b
+}
+
+// hacSlopeT is the t-ratio of b in y_t = a + b t + u_t with a Bartlett
+// long-run variance of u (Newey-West bandwidth).
+func hacSlopeT(y []float64) float64 {
+	T := len(y)
+	if T < 8 {
+		return 0
+	}
+	tb := float64(T+1) / 2
+	yb := 0.0
+	for _, v := range y {
+		yb += v
+	}
+	yb /= float64(T)
+	sxx, sxy := 0.0, 0.0
+	for i, v := range y {
+		d := float64(i+1) - tb
+		sxx += d * d
+		sxy += d * (v - yb)
+	}
+	b := sxy / sxx
+	u := make([]float64, T)
+	for i, v := range y {
+		u[i] = v - yb - b*(float64(i+1)-tb)
+	}
+	lrv, _, err := core.LongRunVariance(u, core.KernelBartlett, core.BandwidthNeweyWest, 0)
+	if err != nil || !(lrv > 0) {
+		return 0
+	}
+	return b / math.Sqrt(lrv/sxx)
+}
+
+// hacMeanT is the t-ratio of the mean of d with a Bartlett long-run
+// variance (Newey-West bandwidth).
+func hacMeanT(d []float64) float64 {
+	n := len(d)
+	if n < 8 {
+		return 0
+	}
+	m := 0.0
+	for _, v := range d {
+		m += v
+	}
+	m /= float64(n)
+	u := make([]float64, n)
+	for i, v := range d {
+		u[i] = v - m
+	}
+	lrv, _, err := core.LongRunVariance(u, core.KernelBartlett, core.BandwidthNeweyWest, 0)
+	if err != nil || !(lrv > 0) {
+		if m != 0 {
+			return math.Inf(int(math.Copysign(1, m)))
+		}
+		return 0
+	}
+	return m / math.Sqrt(lrv/float64(n))
+}
