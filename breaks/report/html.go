@@ -52,8 +52,8 @@ func WriteHTML(w io.Writer, doc *schema.Document, inputs []dataset.Series) error
 	}
 	e := &errWriter{w: w}
 	title := "rootshift results"
-	if doc.Source != nil && doc.Source.Name != "" {
-		title += ": " + doc.Source.Name
+	if n := sourceName(doc); n != "" {
+		title += ": " + n
 	}
 	e.print("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\"/>\n" +
 		"<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"/>\n")

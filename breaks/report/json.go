@@ -19,7 +19,7 @@ func WriteJSON(w io.Writer, doc *schema.Document) error {
 	if err != nil {
 		return err
 	}
-	b = append(b, '\n')
+	b = append(JSONHidden(b), '\n')
 	_, err = w.Write(b)
 	return err
 }

@@ -27,8 +27,8 @@ func WriteLaTeX(w io.Writer, doc *schema.Document) error {
 	e.print("% Stars: * p < 0.10, ** p < 0.05, *** p < 0.01.\n")
 	e.print("\\begin{table}[htbp]\n\\centering\n")
 	caption := "Unit-root and structural-break tests"
-	if doc.Source != nil && doc.Source.Name != "" {
-		caption += ": " + texEscape(doc.Source.Name)
+	if n := sourceName(doc); n != "" {
+		caption += ": " + texEscape(n)
 	}
 	e.print("\\caption{" + caption + "}\n")
 	sim := false
@@ -154,7 +154,7 @@ var texReplacer = strings.NewReplacer(
 )
 
 // texEscape escapes text for LaTeX.
-func texEscape(s string) string { return texReplacer.Replace(s) }
+func texEscape(s string) string { return texReplacer.Replace(visible(s)) }
 
 // texP formats a p-value in math mode, as a bound ("$<0.001$") when bound
 // is "<" or ">", or "--" when p is nil or not finite.

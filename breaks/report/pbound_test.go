@@ -123,7 +123,8 @@ func TestPBoundFromTests(t *testing.T) {
 }
 
 // TestCSVID: the id column is SOURCE:SERIES with a named source (the batch
-// summary CSV concatenates documents from many files), else the series name.
+// summary CSV concatenates documents from many files), else the series name;
+// SOURCE is the file's base name only, never its folders.
 func TestCSVID(t *testing.T) {
 	stat := -2.0
 	mk := func(src *schema.Source) *schema.Document {
@@ -136,7 +137,8 @@ func TestCSVID(t *testing.T) {
 		src  *schema.Source
 		want []string
 	}{
-		{&schema.Source{Name: "data/a.csv"}, []string{"data/a.csv:gdp", "data/a.csv:cpi"}},
+		{&schema.Source{Name: "data/a.csv"}, []string{"a.csv:gdp", "a.csv:cpi"}},
+		{&schema.Source{Name: `C:\Users\me\secret\a.csv`}, []string{"a.csv:gdp", "a.csv:cpi"}},
 		{&schema.Source{}, []string{"gdp", "cpi"}},
 		{nil, []string{"gdp", "cpi"}},
 	} {

@@ -53,15 +53,26 @@ type errWriter struct {
 	err error
 }
 
+// print writes s with every control character other than the writer's own
+// line breaks shown visibly: a last guard behind each format's escaping.
 func (e *errWriter) print(s string) {
 	if e.err != nil {
 		return
 	}
-	_, e.err = io.WriteString(e.w, s)
+	_, e.err = io.WriteString(e.w, visibleLines(s))
 }
 
 func (e *errWriter) printf(format string, args ...any) {
 	e.print(fmt.Sprintf(format, args...))
+}
+
+// sourceName is the base name of the document's source (no folders: a
+// report must not carry the layout of the machine that ran it), or "".
+func sourceName(doc *schema.Document) string {
+	if doc.Source == nil {
+		return ""
+	}
+	return SafeName(doc.Source.Name)
 }
 
 // finite reports whether x is neither NaN nor ±Inf.
@@ -192,7 +203,7 @@ func componentDecision(r *schema.Result, c *schema.Component) string {
 // breakLabel names observation index with its date when known.
 func breakLabel(index int, date string) string {
 	if date != "" {
-		return date
+		return visible(date)
 	}
 	return "obs " + strconv.Itoa(index)
 }

@@ -74,11 +74,11 @@ func px(v float64) string {
 	return strconv.FormatFloat(snap(v), 'f', 1, 64)
 }
 
-// esc escapes text for XML (and HTML): markup characters become
-// references, and characters that XML forbids become U+FFFD.
+// esc escapes text for XML (and HTML): control characters are shown
+// visibly (see visible), then markup characters become references.
 func esc(s string) string {
 	var b strings.Builder
-	_ = xml.EscapeText(&b, []byte(s))
+	_ = xml.EscapeText(&b, []byte(visible(s)))
 	return b.String()
 }
 

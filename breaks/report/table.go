@@ -26,8 +26,8 @@ func WriteTable(w io.Writer, doc *schema.Document) error {
 	if doc.Version != "" {
 		title += " " + doc.Version
 	}
-	if doc.Source != nil && doc.Source.Name != "" {
-		title += ": " + doc.Source.Name
+	if n := sourceName(doc); n != "" {
+		title += ": " + visible(n)
 		if doc.Source.Rows > 0 {
 			title += " (" + strconv.Itoa(doc.Source.Rows) + " rows)"
 		}
