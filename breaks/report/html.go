@@ -161,7 +161,8 @@ func htmlResults(e *errWriter, s *schema.Series) {
 		r := &s.Results[i]
 		e.print("<tr>")
 		td("", r.Test)
-		td("", strings.TrimSpace(r.Variant+" "+r.Shift))
+		variant, vdetail := variantText(r)
+		td("", variant)
 		td("", r.Trend)
 		td("num", numP(r.Statistic, "n/a"))
 		td("num", resultP(r, "n/a"))
@@ -181,6 +182,9 @@ func htmlResults(e *errWriter, s *schema.Series) {
 		}
 		td(cls, resultDecision(r))
 		var notes []string
+		if vdetail != "" {
+			notes = append(notes, vdetail)
+		}
 		if len(r.Breaks) > 0 {
 			notes = append(notes, "breaks: "+breaksText(r.Breaks))
 		}
@@ -191,7 +195,7 @@ func htmlResults(e *errWriter, s *schema.Series) {
 			notes = append(notes, "two-break search: "+surfaceText(r.Surface))
 		}
 		if r.Bandwidth != nil {
-			notes = append(notes, "bandwidth "+numP(r.Bandwidth, "n/a")+" "+r.Kernel)
+			notes = append(notes, strings.TrimSpace("bandwidth "+value(*r.Bandwidth, "n/a")+" "+r.Kernel))
 		}
 		if len(r.Estimates) > 0 {
 			notes = append(notes, "estimates: "+estimatesText(r.Estimates))

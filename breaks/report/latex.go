@@ -86,7 +86,7 @@ func (t *texTable) series(s *schema.Series) {
 	t.span("l", head)
 	for i := range s.Results {
 		r := &s.Results[i]
-		variant := strings.TrimSpace(r.Variant + " " + r.Shift)
+		variant, _ := variantText(r)
 		stat := texNum(r.Statistic, stars(starsP(r.PValue, resultPBound(r)), r.PValueSim, r.Statistic, r.CriticalValues, r.Tail))
 		cv5 := "--"
 		if c, ok := cv(r.CriticalValues, "0.05"); ok {
@@ -156,13 +156,13 @@ var texReplacer = strings.NewReplacer(
 // texEscape escapes text for LaTeX.
 func texEscape(s string) string { return texReplacer.Replace(visible(s)) }
 
-// texP formats a p-value in math mode, as a bound ("$<0.001$") when bound
-// is "<" or ">", or "--" when p is nil or not finite.
+// texP formats a p-value in math mode as schema.FormatP writes it
+// ("$0.620$", "$<0.001$"), or "--" when p is nil or not finite.
 func texP(p *float64, bound string) string {
-	if p == nil || !finite(*p) || bound == "" {
-		return texNum(p, "")
+	if p == nil || !finite(*p) {
+		return "--"
 	}
-	return "$" + boundNum(*p, bound) + "$"
+	return "$" + schema.FormatP(p, bound) + "$"
 }
 
 // starsP is the p-value the stars read: a lower-end bound "<p" means the

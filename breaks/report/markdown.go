@@ -94,7 +94,7 @@ func mdSeries(e *errWriter, s *schema.Series) {
 		}
 		for i := range s.Results {
 			r := &s.Results[i]
-			variant := strings.TrimSpace(r.Variant + " " + r.Shift)
+			variant, vdetail := variantText(r)
 			cv5 := "n/a"
 			if c, ok := cv(r.CriticalValues, "0.05"); ok {
 				cv5 = num(c, "n/a")
@@ -104,6 +104,9 @@ func mdSeries(e *errWriter, s *schema.Series) {
 				cells = append(cells, simP(r, "n/a"))
 			}
 			var extra []string
+			if vdetail != "" {
+				extra = append(extra, vdetail)
+			}
 			if len(r.Breaks) > 0 {
 				extra = append(extra, breaksText(r.Breaks))
 			}

@@ -97,17 +97,15 @@ func tableSeries(e *errWriter, s *schema.Series) {
 		if r.PValueSim != nil {
 			hasSim = true
 		}
+		variant, vdetail := variantText(r)
 		row := tableRow{
-			test:     r.Test,
-			variant:  r.Variant,
+			test:     visible(r.Test),
+			variant:  variant,
 			stat:     numP(r.Statistic, "n/a"),
 			p:        resultP(r, "n/a"),
 			psim:     simP(r, "-"),
 			lags:     strconv.Itoa(r.Lags),
 			decision: resultDecision(r),
-		}
-		if r.Shift != "" {
-			row.variant = strings.TrimSpace(row.variant + " " + r.Shift)
 		}
 		if c, ok := cv(r.CriticalValues, "0.05"); ok {
 			row.cv5 = num(c, "n/a")
@@ -122,6 +120,9 @@ func tableSeries(e *errWriter, s *schema.Series) {
 			rows = append(rows, componentRow(r, &r.BreakTests[j]))
 		}
 		last := &rows[len(rows)-1]
+		if vdetail != "" {
+			last.details = append(last.details, "variant: "+vdetail)
+		}
 		if len(r.Breaks) > 0 {
 			last.details = append(last.details, "breaks: "+breaksText(r.Breaks))
 		}
@@ -132,7 +133,7 @@ func tableSeries(e *errWriter, s *schema.Series) {
 			last.details = append(last.details, "two-break search: "+surfaceText(r.Surface))
 		}
 		if r.Bandwidth != nil {
-			bw := "bandwidth " + numP(r.Bandwidth, "n/a")
+			bw := "bandwidth " + value(*r.Bandwidth, "n/a")
 			if r.Kernel != "" {
 				bw += " (" + r.Kernel + " kernel)"
 			}
@@ -194,7 +195,7 @@ func tableSeries(e *errWriter, s *schema.Series) {
 func componentRow(r *schema.Result, c *schema.Component) tableRow {
 	row := tableRow{
 		test:     "",
-		variant:  "  " + c.Name,
+		variant:  "  " + visible(c.Name),
 		stat:     numP(c.Statistic, "n/a"),
 		p:        compP(c, "n/a"),
 		psim:     "-",
