@@ -96,7 +96,8 @@ func hostileDoc() (*schema.Document, []dataset.Series) {
 				Supporting:  []string{other}, Against: []string{name},
 				Tests: []string{"za"},
 			},
-			Errors:   []schema.Error{{Test: "adf", Row: 3, Column: other, Message: name}},
+			Errors: []schema.Error{{Test: "adf", Row: 3, Column: other, Message: name},
+				{Message: `reading "/home/analyst/confidential-merger/in/q1.xlsx": sheet 2; also C:\Users\analyst\confidential-merger\b.csv`}},
 			Warnings: []string{other},
 		})
 		inputs = append(inputs, dataset.Series{Name: name, Values: values, Dates: dates, Frequency: "annual"})
@@ -231,6 +232,21 @@ func formulaLike(cell string) bool {
 	}
 	first, _ := utf8.DecodeRuneInString(strings.TrimLeft(cell, " "))
 	return strings.ContainsRune("=+-@＝＋－＠", first)
+}
+
+// TestNoFolders: paths inside messages lose their folders.
+func TestNoFolders(t *testing.T) {
+	for _, tc := range []struct{ in, want string }{
+		{"no path here, n/a and 1/2", "no path here, n/a and 1/2"},
+		{`"testdata/us-employment.csv" row 3`, `"us-employment.csv" row 3`},
+		{"/home/a/b/c.CSV: bad", "c.CSV: bad"},
+		{`C:\data\x.xlsx, sheet 1`, "x.xlsx, sheet 1"},
+		{"file ./rel/y.jsonl.gz ok", "file y.jsonl.gz ok"},
+	} {
+		if got := noFolders(tc.in); got != tc.want {
+			t.Errorf("noFolders(%q) = %q, want %q", tc.in, got, tc.want)
+		}
+	}
 }
 
 // TestCSVCell is the cell rule itself, case by case.

@@ -154,7 +154,7 @@ var texReplacer = strings.NewReplacer(
 )
 
 // texEscape escapes text for LaTeX.
-func texEscape(s string) string { return texReplacer.Replace(visible(s)) }
+func texEscape(s string) string { return texReplacer.Replace(outText(s)) }
 
 // texP formats a p-value in math mode as schema.FormatP writes it
 // ("$0.620$", "$<0.001$"), or "--" when p is nil or not finite.

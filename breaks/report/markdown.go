@@ -166,7 +166,7 @@ func mdSeries(e *errWriter, s *schema.Series) {
 // letter, '/', '!', '?' or '#'), so that "p<0.001" reads as written. A ">"
 // that begins the text is escaped (a quotation); elsewhere it is plain.
 func mdText(s string) string {
-	s = visible(s)
+	s = outText(s)
 	var b strings.Builder
 	b.Grow(len(s) + 8)
 	for i := 0; i < len(s); i++ {

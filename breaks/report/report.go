@@ -51,6 +51,9 @@ func Write(w io.Writer, format string, doc *schema.Document, inputs []dataset.Se
 type errWriter struct {
 	w   io.Writer
 	err error
+	// plain marks plain text (the table): print then also drops the folders
+	// of file paths, which in the escaped formats their escaping does.
+	plain bool
 }
 
 // print writes s with every control character other than the writer's own
@@ -59,7 +62,11 @@ func (e *errWriter) print(s string) {
 	if e.err != nil {
 		return
 	}
-	_, e.err = io.WriteString(e.w, visibleLines(s))
+	s = visibleLines(s)
+	if e.plain {
+		s = noFolders(s)
+	}
+	_, e.err = io.WriteString(e.w, s)
 }
 
 func (e *errWriter) printf(format string, args ...any) {

@@ -1,6 +1,7 @@
 package report
 
 import (
+	"regexp"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -16,6 +17,8 @@ import (
 //     invalid UTF-8 are shown visibly as escapes ("\x1b", "\n", "\u202e",
 //     "\xff") by visible, so that no terminal sequence, no hidden reordering
 //     and no line break reaches the reader from a name.
+//   - Everywhere: a file path inside a message keeps only its base name
+//     (noFolders), as the source's name does (SafeName).
 //   - table: visible, and the writer filters every line once more.
 //   - csv: visible, then CSVCell: a cell whose first non-blank character is
 //     = + - @ (or their full-width forms), or that starts with a tab or a
@@ -128,7 +131,7 @@ func CSVCell(s string) string {
 		return s
 	}
 	risky := s[0] == '\t' || s[0] == '\r'
-	t := visible(s)
+	t := outText(s)
 	if !risky {
 		first, _ := utf8.DecodeRuneInString(strings.TrimLeft(t, " "))
 		switch first {
@@ -185,3 +188,20 @@ func JSONHidden(b []byte) []byte {
 	}
 	return out
 }
+
+// pathRe matches a file path inside a message: a run without blanks or
+// quotes that holds a folder separator and ends in a data file's extension.
+var pathRe = regexp.MustCompile(`[^\s"'<>|;,()\[\]{}=]*[/\\][^\s"'<>|;,()\[\]{}=]*\.(?i:csv|tsv|txt|xlsx|xls|json|jsonl|ndjson|dat|gz)\b`)
+
+// noFolders replaces every file path inside s (an error message that names
+// its input file, for example) by its base name; see SafeName.
+func noFolders(s string) string {
+	if !strings.ContainsAny(s, `/\`) {
+		return s
+	}
+	return pathRe.ReplaceAllStringFunc(s, SafeName)
+}
+
+// outText is the text every writer prints: no folder of a file path, and
+// every control character visible.
+func outText(s string) string { return noFolders(visible(s)) }

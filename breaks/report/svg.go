@@ -78,7 +78,7 @@ func px(v float64) string {
 // visibly (see visible), then markup characters become references.
 func esc(s string) string {
 	var b strings.Builder
-	_ = xml.EscapeText(&b, []byte(visible(s)))
+	_ = xml.EscapeText(&b, []byte(outText(s)))
 	return b.String()
 }
 

@@ -21,7 +21,7 @@ func WriteTable(w io.Writer, doc *schema.Document) error {
 	if doc == nil {
 		return ErrNoDocument
 	}
-	e := &errWriter{w: w}
+	e := &errWriter{w: w, plain: true}
 	title := "rootshift"
 	if doc.Version != "" {
 		title += " " + doc.Version
