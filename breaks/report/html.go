@@ -242,13 +242,8 @@ func htmlPlots(e *errWriter, s *schema.Series, in *dataset.Series) {
 	var figs []string
 	var caps []string
 	if in != nil {
-		breaks := PlotBreaks(s)
-		var episodes []schema.Episode
-		for i := range s.Results {
-			episodes = append(episodes, s.Results[i].Episodes...)
-		}
-		figs = append(figs, SeriesSVG(*in, breaks, episodes))
-		caps = append(caps, "The series; dashed lines fall between the last observation of the old regime and the first of the new; shaded: confidence intervals of the breaks and explosive episodes.")
+		figs = append(figs, SeriesPlot(*in, s))
+		caps = append(caps, "The series; dashed lines fall between the last observation of the old regime and the first of the new; shaded: confidence intervals of the breaks, explosive episodes and the suspected window.")
 		figs = append(figs, ACFSVG(*in, 0))
 		caps = append(caps, "Autocorrelations of the level and of the first difference, with the approximate 95% band under white noise. A slowly decaying level ACF is typical of a unit root, and also of a stationary series with a level shift.")
 	}
