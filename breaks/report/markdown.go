@@ -53,6 +53,15 @@ func mdSeries(e *errWriter, s *schema.Series) {
 		if v.Window != nil {
 			items = append(items, "Window: "+windowText(v.Window))
 		}
+		if v.Reliability != nil {
+			items = append(items, "Error rate: "+reliabilityText(v.Reliability))
+		}
+		for k := range v.Stages {
+			items = append(items, "Stage "+strconv.Itoa(k+1)+", "+stageText(&v.Stages[k]))
+		}
+		for _, c := range v.Context {
+			items = append(items, "Context: "+c)
+		}
 		for _, t := range v.Supporting {
 			items = append(items, "For: "+t)
 		}

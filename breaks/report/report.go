@@ -347,6 +347,12 @@ func windowText(w *schema.WindowCheck) string {
 		s += "; known-break test " + w.Known.Test + " " + num(*w.Known.Statistic, "n/a") +
 			" (" + resultDecision(w.Known) + ")"
 	}
+	if w.Test != nil {
+		s += "; " + windowTestText(w.Test)
+	}
+	if w.Answer != "" {
+		s += ". Answer: " + visible(w.Answer)
+	}
 	return s
 }
 

@@ -36,6 +36,10 @@ func WriteTable(w io.Writer, doc *schema.Document) error {
 	for _, l := range wrap("settings: "+strings.Join(settingsNotes(&doc.Settings), "; "), tableWidth-2) {
 		e.print(l + "\n")
 	}
+	if len(doc.Series) > 1 {
+		e.print("\n")
+		tableOverview(e, doc)
+	}
 	for i := range doc.Series {
 		e.print("\n")
 		tableSeries(e, &doc.Series[i])
@@ -79,6 +83,15 @@ func tableSeries(e *errWriter, s *schema.Series) {
 		}
 		if v.Window != nil {
 			para("", windowText(v.Window))
+		}
+		if v.Reliability != nil {
+			para("error rate: ", reliabilityText(v.Reliability))
+		}
+		for k := range v.Stages {
+			para("stage "+strconv.Itoa(k+1)+", ", stageText(&v.Stages[k]))
+		}
+		for _, c := range v.Context {
+			para("context: ", c)
 		}
 		for _, t := range v.Supporting {
 			para("+ ", t)
