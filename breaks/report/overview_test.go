@@ -86,7 +86,7 @@ func TestOverviewHTML(t *testing.T) {
 	if ov < 0 || ov > first {
 		t.Fatalf("overview at %d, first series at %d", ov, first)
 	}
-	overview := page[ov:strings.Index(page[ov:], "</table>")+ov]
+	overview := page[ov : strings.Index(page[ov:], "</table>")+ov]
 	if n := strings.Count(overview, "<tr>"); n != 3 {
 		t.Errorf("%d overview rows with the header, want 3", n)
 	}
