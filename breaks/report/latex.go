@@ -1,6 +1,7 @@
 package report
 
 import (
+	"fmt"
 	"io"
 	"math"
 	"strconv"
@@ -153,8 +154,53 @@ var texReplacer = strings.NewReplacer(
 	"<", `\textless{}`, ">", `\textgreater{}`, "|", `\textbar{}`, "\n", " ", "\r", " ",
 )
 
-// texEscape escapes text for LaTeX.
-func texEscape(s string) string { return texReplacer.Replace(outText(s)) }
+// texEscape escapes text for LaTeX: control characters shown visibly,
+// special characters replaced, and characters that a LaTeX run with the
+// default fonts cannot typeset (anything beyond Latin-1 but a few
+// typographic marks, and the six Latin-1 letters and guillemets the default
+// encoding lacks) written as their code point, "[U+FF1D]", so that the
+// fragment compiles with pdflatex and no extra package.
+func texEscape(s string) string { return texReplacer.Replace(texChars(outText(s))) }
+
+// texMissing are the Latin-1 characters the default OT1 font encoding lacks
+// (found by running pdflatex on each character of U+00A1..U+00FF).
+const texMissing = "«»ÐÞðþ"
+
+// texExtra are characters beyond Latin-1 that pdflatex typesets by default.
+const texExtra = "–—‘’“”…€•™"
+
+// texChars writes every character outside what pdflatex typesets by default
+// as "[U+XXXX]".
+func texChars(s string) string {
+	ok := func(r rune) bool {
+		if r < 0x80 {
+			return true
+		}
+		if r >= 0xa0 && r <= 0xff {
+			return !strings.ContainsRune(texMissing, r)
+		}
+		return strings.ContainsRune(texExtra, r)
+	}
+	clean := true
+	for _, r := range s {
+		if !ok(r) {
+			clean = false
+			break
+		}
+	}
+	if clean {
+		return s
+	}
+	var b strings.Builder
+	for _, r := range s {
+		if ok(r) {
+			b.WriteRune(r)
+		} else {
+			b.WriteString(fmt.Sprintf("[U+%04X]", r))
+		}
+	}
+	return b.String()
+}
 
 // texP formats a p-value in math mode as schema.FormatP writes it
 // ("$0.620$", "$<0.001$"), or "--" when p is nil or not finite.
