@@ -5,6 +5,8 @@ import (
 	"strconv"
 	"strings"
 	"unicode/utf8"
+
+	"github.com/rootshift/rootshift/core/schema"
 )
 
 // Escaping policy: one rule per format, applied to every string that can
@@ -205,3 +207,57 @@ func noFolders(s string) string {
 // outText is the text every writer prints: no folder of a file path, and
 // every control character visible.
 func outText(s string) string { return noFolders(visible(s)) }
+
+// exportDoc is doc as the JSON writers export it: the source's base name
+// only, and no folder of a file path in the series' errors and warnings.
+// It returns doc itself when there is nothing to change, else a shallow copy
+// (doc is never modified).
+func exportDoc(doc *schema.Document) *schema.Document {
+	dirty := doc.Source != nil && SafeName(doc.Source.Name) != doc.Source.Name
+	seriesDirty := func(s *schema.Series) bool {
+		for _, e := range s.Errors {
+			if noFolders(e.Message) != e.Message {
+				return true
+			}
+		}
+		for _, w := range s.Warnings {
+			if noFolders(w) != w {
+				return true
+			}
+		}
+		return false
+	}
+	for i := range doc.Series {
+		if dirty {
+			break
+		}
+		dirty = seriesDirty(&doc.Series[i])
+	}
+	if !dirty {
+		return doc
+	}
+	out := *doc
+	if doc.Source != nil {
+		src := *doc.Source
+		src.Name = SafeName(src.Name)
+		out.Source = &src
+	}
+	out.Series = append([]schema.Series(nil), doc.Series...)
+	for i := range out.Series {
+		s := &out.Series[i]
+		if !seriesDirty(s) {
+			continue
+		}
+		errs := append([]schema.Error(nil), s.Errors...)
+		for j := range errs {
+			errs[j].Message = noFolders(errs[j].Message)
+		}
+		s.Errors = errs
+		ws := append([]string(nil), s.Warnings...)
+		for j := range ws {
+			ws[j] = noFolders(ws[j])
+		}
+		s.Warnings = ws
+	}
+	return &out
+}
