@@ -111,8 +111,18 @@ func hex2(c byte) string {
 // visibleLines is visible for a block of text whose line breaks are the
 // writer's own: each line is made visible and the "\n" kept.
 func visibleLines(s string) string {
-	if visibleClean(strings.ReplaceAll(s, "\n", "")) {
-		return s
+	for rest := s; ; {
+		i := strings.IndexByte(rest, '\n')
+		if i < 0 {
+			if visibleClean(rest) {
+				return s
+			}
+			break
+		}
+		if !visibleClean(rest[:i]) {
+			break
+		}
+		rest = rest[i+1:]
 	}
 	lines := strings.Split(s, "\n")
 	for i, l := range lines {
