@@ -46,14 +46,17 @@ func parseCal(s string) (calDate, bool) {
 	return calDate{}, false
 }
 
-// maxDateTicks is how many date labels fit under a plot: the widest label
-// plus a gap, over the plot's width, at most 8.
-func maxDateTicks(dates []string) int {
-	w := 0.0
-	for _, d := range []string{dates[0], dates[len(dates)-1]} {
-		w = max(w, textWidth(d))
+// fitTicks reports whether labels fit side by side under a plot: at most
+// most of them, each as wide as the widest plus a gap.
+func fitTicks(labels []string, most int) bool {
+	if len(labels) < 2 || len(labels) > most {
+		return false
 	}
-	return max(2, min(8, int(float64(svgWidth-100)/(w+24))))
+	w := 0.0
+	for _, l := range labels {
+		w = max(w, textWidth(l))
+	}
+	return float64(len(labels))*(w+24) <= svgWidth-100
 }
 
 // yearSteps and quarterSteps are the spacings tried, finest first.
@@ -67,8 +70,8 @@ var (
 // the step) when at least three years begin inside the sample, else at the
 // first observation of every quarter (or every second quarter). It returns
 // the ticks as 1-based observation numbers with their labels ("2008",
-// "2008Q3" or "2008-07"), at most most of them; none when the dates do not
-// all parse or no spacing fits.
+// "2008Q3" or "2008-07"), at most most of them and no more than fit side by
+// side under a plot; none when the dates do not all parse or no spacing fits.
 func calendarTicks(dates []string, most int) ([]float64, []string) {
 	cal := make([]calDate, len(dates))
 	for i, d := range dates {
@@ -103,7 +106,7 @@ func calendarTicks(dates []string, most int) ([]float64, []string) {
 					ls = append(ls, strconv.Itoa(cal[i].y))
 				}
 			}
-			if len(ts) <= most && len(ts) >= 2 {
+			if fitTicks(ls, most) {
 				return ts, ls
 			}
 		}
@@ -126,7 +129,7 @@ func calendarTicks(dates []string, most int) ([]float64, []string) {
 				ls = append(ls, strconv.Itoa(c.y)+"-"+string(rune('0'+m/10))+string(rune('0'+m%10)))
 			}
 		}
-		if len(ts) <= most && len(ts) >= 2 {
+		if fitTicks(ls, most) {
 			return ts, ls
 		}
 	}

@@ -529,7 +529,7 @@ func seriesSVG(s dataset.Series, breaks []schema.Break, episodes []schema.Episod
 	xlabel := func(v float64) string { return strconv.Itoa(int(v)) }
 	if dates != nil {
 		labels := map[float64]string{}
-		if ts, ls := calendarTicks(dates, maxDateTicks(dates)); len(ts) >= 2 {
+		if ts, ls := calendarTicks(dates, 8); len(ts) >= 2 {
 			xticks = ts
 			for k, t := range ts {
 				labels[t] = ls[k]
