@@ -112,8 +112,8 @@ func stageText(st *schema.Stage) string {
 	if st.Statistic != nil && finite(*st.Statistic) {
 		ev = append(ev, "statistic "+num(*st.Statistic, "n/a"))
 	}
-	if p := stageP(st); p != "" {
-		ev = append(ev, "p"+pEq(p))
+	if p := schema.PClause(st.PValue, schema.PBound(st.PValue, false)); p != "" {
+		ev = append(ev, p)
 	}
 	if len(ev) > 0 {
 		s += " (" + strings.Join(ev, ", ") + ")"
@@ -126,14 +126,6 @@ func stageP(st *schema.Stage) string {
 	return schema.FormatP(st.PValue, schema.PBound(st.PValue, false))
 }
 
-// pEq writes "=0.012" for a point value and "<0.001" for a bound.
-func pEq(p string) string {
-	if strings.HasPrefix(p, "<") || strings.HasPrefix(p, ">") {
-		return p
-	}
-	return "=" + p
-}
-
 // windowTestText describes the test whose break search was restricted to
 // the window.
 func windowTestText(r *schema.Result) string {
@@ -141,8 +133,8 @@ func windowTestText(r *schema.Result) string {
 	if r.Statistic != nil && finite(*r.Statistic) {
 		s += " statistic " + num(*r.Statistic, "n/a")
 	}
-	if p := resultP(r, ""); p != "" {
-		s += ", p" + pEq(p)
+	if p := schema.PClause(r.PValue, resultPBound(r)); p != "" {
+		s += ", " + p
 	}
 	if d := resultDecision(r); d != "" {
 		s += " (" + d + ")"

@@ -116,3 +116,17 @@ func FormatP(p *float64, bound string) string {
 
 // ResultP is the displayed asymptotic p-value of r ("" when it has none).
 func ResultP(r *Result) string { return FormatP(r.PValue, ResultPBound(r)) }
+
+// PClause writes a p-value for a sentence: "p=0.620", "p<0.001", "p>0.999";
+// "" when p is nil or not finite. The verdict's sentences and the reports
+// use it so that a sentence and a table print the same p-value alike.
+func PClause(p *float64, bound string) string {
+	s := FormatP(p, bound)
+	switch {
+	case s == "":
+		return ""
+	case s[0] == '<' || s[0] == '>':
+		return "p" + s
+	}
+	return "p=" + s
+}
