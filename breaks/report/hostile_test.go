@@ -160,6 +160,9 @@ func TestHostileNothingSurvives(t *testing.T) {
 		if strings.Contains(out, "confidential-merger") {
 			t.Errorf("%s: the source's folders leak", format)
 		}
+		if format != "csv" && !strings.Contains(strings.Join(strings.Fields(out), " "), schema.Caution[:60]) {
+			t.Errorf("%s: no caution", format)
+		}
 		if format != "json" && format != "csv" && !strings.Contains(out, "cmd") {
 			t.Errorf("%s: the source's base name is missing", format)
 		}

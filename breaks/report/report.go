@@ -82,6 +82,15 @@ func sourceName(doc *schema.Document) string {
 	return SafeName(doc.Source.Name)
 }
 
+// caution is the document's caution, or the schema's when it has none:
+// every report carries it.
+func caution(doc *schema.Document) string {
+	if doc.Caution != "" {
+		return doc.Caution
+	}
+	return schema.Caution
+}
+
 // finite reports whether x is neither NaN nor ±Inf.
 func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
 
