@@ -73,7 +73,8 @@ func acfDefaultLags(T int) int {
 // min(10 log10 T, T-1); at most 500 lags are drawn. A panel whose ACF is undefined (too few
 // observations, or a constant) says so. It returns a complete <svg> element.
 func ACFSVG(s dataset.Series, lags int) string {
-	const panel = 165
+	const acfTop = 36
+	const panel = 190
 	const height = 2*panel + 40
 	var level, diff []float64
 	prev := math.NaN()
@@ -91,18 +92,23 @@ func ACFSVG(s dataset.Series, lags int) string {
 	}
 	lags = min(lags, 500) // more bars than pixels would not be readable
 	b := newSVG(height, "Autocorrelation function of "+s.Name+": level and first difference")
-	b.text(12, 16, "start", colText, "Autocorrelations of "+s.Name, ` font-size="13" font-weight="bold"`)
-	b.acfPanel(level, lags, "level", 34)
-	b.acfPanel(diff, lags, "first difference", 34+panel+6)
+	b.text(12, 20, "start", colText, titleText("Autocorrelations of "+s.Name), ` font-size="`+strconv.Itoa(fontTitle)+`" font-weight="bold"`)
+	b.acfPanel(level, lags, "level", acfTop)
+	b.acfPanel(diff, lags, "first difference", 36+panel+6)
 	return b.close()
+}
+
+// acfFrame is the plot area of an ACF panel whose top edge is at y.
+func acfFrame(lags int, y float64) *frame {
+	const panelPlot = 120
+	return &frame{x0: 0.5, x1: float64(lags) + 0.5, y0: -1, y1: 1, left: 56, top: y + 20, width: svgWidth - 56 - 16, height: panelPlot}
 }
 
 // acfPanel draws one ACF panel with its top edge at y.
 func (b *svgBuilder) acfPanel(x []float64, lags int, name string, y float64) {
-	const panelPlot = 120
-	f := &frame{x0: 0.5, x1: float64(lags) + 0.5, y0: -1, y1: 1, left: 64, top: y + 14, width: svgWidth - 64 - 16, height: panelPlot}
+	f := acfFrame(lags, y)
 	T := len(x)
-	b.text(f.left, y+8, "start", colText, name+" (T="+strconv.Itoa(T)+")", "")
+	b.text(f.left, y+12, "start", colText, name+" (T="+strconv.Itoa(T)+")", "")
 	r := ACF(x, lags)
 	var xticks []float64
 	if r != nil {
@@ -133,5 +139,5 @@ func (b *svgBuilder) acfPanel(x []float64, lags int, name string, y float64) {
 		b.line(f.left, yb, f.left+f.width, yb, colBand, ` stroke-dasharray="5,3"`)
 	}
 	b.text(f.left+f.width-4, f.Y(band)-3, "end", colBand, "±1.96/√T", "")
-	b.text(f.left+f.width/2, f.top+f.height+28, "middle", colText, "lag", "")
+	b.text(f.left+f.width/2, f.top+f.height+2*fontBase+4, "middle", colText, "lag", "")
 }

@@ -49,9 +49,10 @@ import (
 //	message            error or warning text; warnings of a result on its row
 //
 // Numbers are written with strconv 'g' at full precision; a missing number is
-// an empty cell. Text cells starting with '=', '+', '@' or a control
-// character get a leading apostrophe so that spreadsheets do not read them
-// as formulas.
+// an empty cell. Text cells go through CSVCell: control characters are shown
+// visibly, and a cell starting with '=', '+', '-', '@', a tab or a carriage
+// return gets a leading apostrophe so that spreadsheets do not read it as a
+// formula. The id column carries the file's base name only.
 var CSVHeader = []string{
 	"row_type", "id", "series", "test", "variant", "component", "trend", "shift",
 	"statistic", "p_value", "p_value_bound", "p_value_sim", "cv_1", "cv_5", "cv_10", "tail",
@@ -118,8 +119,8 @@ const (
 // csvID is the id column of series s in doc: "SOURCE:SERIES" when the
 // document names its source, else the series name.
 func csvID(doc *schema.Document, s *schema.Series) string {
-	if doc.Source != nil && doc.Source.Name != "" {
-		return doc.Source.Name + ":" + s.Name
+	if n := sourceName(doc); n != "" {
+		return n + ":" + s.Name
 	}
 	return s.Name
 }
@@ -158,7 +159,7 @@ func csvSeries(id string, s *schema.Series) [][]string {
 		rec[cNObs] = strconv.Itoa(r.NObs)
 		rec[cLevel] = csvFloat(r.Level)
 		rec[cReject] = strconv.FormatBool(r.Reject)
-		rec[cDecision] = resultDecision(r)
+		rec[cDecision] = csvText(resultDecision(r))
 		rec[cBreakDates] = csvText(strings.Join(breakDates(r.Breaks), ";"))
 		idx := make([]string, len(r.Breaks))
 		for j, b := range r.Breaks {
@@ -189,7 +190,7 @@ func csvSeries(id string, s *schema.Series) [][]string {
 			crec[cNObs] = rec[cNObs]
 			crec[cLevel] = rec[cLevel]
 			crec[cReject] = strconv.FormatBool(c.Reject)
-			crec[cDecision] = componentDecision(r, c)
+			crec[cDecision] = csvText(componentDecision(r, c))
 			out = append(out, crec)
 		}
 	}
@@ -234,14 +235,5 @@ func csvNum(p *float64) string {
 	return csvFloat(*p)
 }
 
-// csvText guards a text cell against being read as a spreadsheet formula.
-func csvText(s string) string {
-	if s == "" {
-		return s
-	}
-	switch c := s[0]; {
-	case c == '=' || c == '+' || c == '@' || c < 0x20:
-		return "'" + s
-	}
-	return s
-}
+// csvText guards a text cell (see CSVCell).
+func csvText(s string) string { return CSVCell(s) }

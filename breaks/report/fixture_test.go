@@ -151,7 +151,15 @@ func fixtureDoc() *schema.Document {
 		Verdict: &schema.Verdict{
 			Class: "break-stationary", Order: ip(0), Transform: "shift-dummies",
 			Breaks: []schema.Break{za},
-			Window: &schema.WindowCheck{From: "1996Q1", To: "1998Q4", BreakInside: true},
+			Window: &schema.WindowCheck{From: "1996Q1", To: "1998Q4", BreakInside: true, FromIndex: 25, ToIndex: 36,
+				Answer: "yes: a break at 1997Q2"},
+			Stages: []schema.Stage{
+				{Name: "trend", Decision: "trending", Method: "t-test on the trend term", Statistic: fp(6.25), PValue: fp(0.00002), Level: 0.05},
+				{Name: "unit-root", Decision: "no unit root once the break is allowed", Method: "za, level shift, table critical values", Statistic: fp(-5.2345), PValue: fp(0.0312), Level: 0.05},
+				{Name: "breaks", Decision: "one break", Method: "bp sequential"},
+			},
+			Context:     []string{"gsadf finds an explosive episode 1999Q4..2001Q2 (not used for the class)"},
+			Reliability: &schema.Reliability{T: 60, Source: "table", Headline: "At T=60 the procedure gives a stationary-with-breaks process another class in 18% of draws, and calls another process break-stationary in at most 7%.", WrongRate: fp(0.07)},
 			Explanation: "The tests that allow a level shift reject a unit root, while the tests that ignore it do not: " +
 				"the series looks persistent only because its level moved up once, in 1997Q2. Treat it as stationary " +
 				"around a shifted mean and model the shift with a dummy rather than differencing.",

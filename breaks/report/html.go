@@ -35,6 +35,11 @@ tr.component td.name{padding-left:1.6em}
 figure{margin:1em 0}
 figure svg{max-width:100%;height:auto;border:1px solid #eee}
 figcaption{color:#555;font-size:.9em}
+.scroll{max-width:100%;overflow-x:auto}
+table.overview td.class{font-weight:bold}
+table.stages{font-size:.9em;margin:.4em 0}
+.reliability{font-size:.95em}
+@media (max-width:600px){body{padding:0 .5em;margin:.8em auto}th,td{padding:.2em .35em}}
 `
 
 // WriteHTML writes doc as one self-contained HTML page: inline CSS only,
@@ -52,8 +57,8 @@ func WriteHTML(w io.Writer, doc *schema.Document, inputs []dataset.Series) error
 	}
 	e := &errWriter{w: w}
 	title := "rootshift results"
-	if doc.Source != nil && doc.Source.Name != "" {
-		title += ": " + doc.Source.Name
+	if n := sourceName(doc); n != "" {
+		title += ": " + n
 	}
 	e.print("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\"/>\n" +
 		"<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"/>\n")
@@ -80,16 +85,7 @@ func WriteHTML(w io.Writer, doc *schema.Document, inputs []dataset.Series) error
 	}
 	e.print("<p class=\"settings\">" + esc(meta+"Settings: "+strings.Join(settingsNotes(&doc.Settings), "; ")+".") + "</p>\n")
 	if len(doc.Series) > 1 {
-		e.print("<ul class=\"toc\">\n")
-		for i := range doc.Series {
-			s := &doc.Series[i]
-			item := s.Name
-			if s.Verdict != nil {
-				item += ": " + classWords(s.Verdict.Class)
-			}
-			e.print("<li><a href=\"#series-" + strconv.Itoa(i+1) + "\">" + esc(item) + "</a></li>\n")
-		}
-		e.print("</ul>\n")
+		htmlOverview(e, doc)
 	}
 	for i := range doc.Series {
 		var in *dataset.Series
@@ -118,6 +114,11 @@ func htmlSeries(e *errWriter, num1 int, s *schema.Series, in *dataset.Series) {
 		if v.Window != nil {
 			e.print("<p>" + esc(upperFirst(windowText(v.Window))) + "</p>\n")
 		}
+		if v.Reliability != nil {
+			e.print("<p class=\"reliability\"><strong>Error rate:</strong> " + esc(reliabilityText(v.Reliability)) + "</p>\n")
+		}
+		htmlStages(e, v.Stages)
+		htmlList(e, "Context (computed, did not decide the class)", "", v.Context)
 		htmlList(e, "Evidence for", "", v.Supporting)
 		htmlList(e, "Evidence against", "", v.Against)
 		if len(v.Tests) > 0 {
@@ -145,7 +146,7 @@ func htmlResults(e *errWriter, s *schema.Series) {
 			hasSim = true
 		}
 	}
-	e.print("<table>\n<thead><tr><th>test</th><th>variant</th><th>trend</th><th>statistic</th><th>p-value</th>")
+	e.print("<div class=\"scroll\"><table>\n<thead><tr><th>test</th><th>variant</th><th>trend</th><th>statistic</th><th>p-value</th>")
 	if hasSim {
 		e.print("<th>p-value (simulated)</th>")
 	}
@@ -161,7 +162,8 @@ func htmlResults(e *errWriter, s *schema.Series) {
 		r := &s.Results[i]
 		e.print("<tr>")
 		td("", r.Test)
-		td("", strings.TrimSpace(r.Variant+" "+r.Shift))
+		variant, vdetail := variantText(r)
+		td("", variant)
 		td("", r.Trend)
 		td("num", numP(r.Statistic, "n/a"))
 		td("num", resultP(r, "n/a"))
@@ -181,6 +183,9 @@ func htmlResults(e *errWriter, s *schema.Series) {
 		}
 		td(cls, resultDecision(r))
 		var notes []string
+		if vdetail != "" {
+			notes = append(notes, vdetail)
+		}
 		if len(r.Breaks) > 0 {
 			notes = append(notes, "breaks: "+breaksText(r.Breaks))
 		}
@@ -191,7 +196,7 @@ func htmlResults(e *errWriter, s *schema.Series) {
 			notes = append(notes, "two-break search: "+surfaceText(r.Surface))
 		}
 		if r.Bandwidth != nil {
-			notes = append(notes, "bandwidth "+numP(r.Bandwidth, "n/a")+" "+r.Kernel)
+			notes = append(notes, strings.TrimSpace("bandwidth "+value(*r.Bandwidth, "n/a")+" "+r.Kernel))
 		}
 		if len(r.Estimates) > 0 {
 			notes = append(notes, "estimates: "+estimatesText(r.Estimates))
@@ -230,7 +235,53 @@ func htmlResults(e *errWriter, s *schema.Series) {
 			e.print("</tr>\n")
 		}
 	}
-	e.print("</tbody>\n</table>\n")
+	e.print("</tbody>\n</table></div>\n")
+}
+
+// htmlOverview writes one row per series before any detail: name (a link
+// to the series), class, order, transform, breaks, the window's answer and
+// the verdict's error rate (these two only when some series has them).
+func htmlOverview(e *errWriter, doc *schema.Document) {
+	rows, hasWindow, hasRate := overviewRows(doc)
+	e.print("<h2 id=\"overview\">Overview</h2>\n<div class=\"scroll\"><table class=\"overview\">\n<thead><tr><th>series</th><th>class</th><th>order</th><th>transform</th><th>breaks</th>")
+	if hasWindow {
+		e.print("<th>window</th>")
+	}
+	if hasRate {
+		e.print("<th>error rate</th>")
+	}
+	e.print("</tr></thead>\n<tbody>\n")
+	for i, r := range rows {
+		e.print("<tr><td><a href=\"#series-" + strconv.Itoa(i+1) + "\">" + esc(r.name) + "</a></td>")
+		e.print("<td class=\"class\">" + esc(r.class) + "</td><td class=\"num\">" + esc(r.order) + "</td><td>" +
+			esc(r.transform) + "</td><td>" + esc(r.breaks) + "</td>")
+		if hasWindow {
+			e.print("<td>" + esc(r.window) + "</td>")
+		}
+		if hasRate {
+			e.print("<td class=\"num\">" + esc(r.errRate) + "</td>")
+		}
+		e.print("</tr>\n")
+	}
+	e.print("</tbody>\n</table></div>\n")
+}
+
+// htmlStages writes the stages of the verdict as a small table.
+func htmlStages(e *errWriter, stages []schema.Stage) {
+	if len(stages) == 0 {
+		return
+	}
+	e.print("<div class=\"scroll\"><table class=\"stages\">\n<thead><tr><th>stage</th><th>decision</th><th>method</th><th>statistic</th><th>p-value</th></tr></thead>\n<tbody>\n")
+	for k := range stages {
+		st := &stages[k]
+		stat := ""
+		if st.Statistic != nil && finite(*st.Statistic) {
+			stat = num(*st.Statistic, "")
+		}
+		e.print("<tr><td>" + esc(strconv.Itoa(k+1)+". "+st.Name) + "</td><td>" + esc(st.Decision) + "</td><td>" + esc(st.Method) +
+			"</td><td class=\"num\">" + esc(stat) + "</td><td class=\"num\">" + esc(stageP(st)) + "</td></tr>\n")
+	}
+	e.print("</tbody>\n</table></div>\n")
 }
 
 // htmlPlots writes the figures of a series.
@@ -238,13 +289,8 @@ func htmlPlots(e *errWriter, s *schema.Series, in *dataset.Series) {
 	var figs []string
 	var caps []string
 	if in != nil {
-		breaks := PlotBreaks(s)
-		var episodes []schema.Episode
-		for i := range s.Results {
-			episodes = append(episodes, s.Results[i].Episodes...)
-		}
-		figs = append(figs, SeriesSVG(*in, breaks, episodes))
-		caps = append(caps, "The series; dashed lines fall between the last observation of the old regime and the first of the new; shaded: confidence intervals of the breaks and explosive episodes.")
+		figs = append(figs, SeriesPlot(*in, s))
+		caps = append(caps, "The series; dashed lines fall between the last observation of the old regime and the first of the new; shaded: confidence intervals of the breaks, explosive episodes and the suspected window.")
 		figs = append(figs, ACFSVG(*in, 0))
 		caps = append(caps, "Autocorrelations of the level and of the first difference, with the approximate 95% band under white noise. A slowly decaying level ACF is typical of a unit root, and also of a stationary series with a level shift.")
 	}

@@ -1,6 +1,7 @@
 package report
 
 import (
+	"fmt"
 	"io"
 	"math"
 	"strconv"
@@ -27,8 +28,8 @@ func WriteLaTeX(w io.Writer, doc *schema.Document) error {
 	e.print("% Stars: * p < 0.10, ** p < 0.05, *** p < 0.01.\n")
 	e.print("\\begin{table}[htbp]\n\\centering\n")
 	caption := "Unit-root and structural-break tests"
-	if doc.Source != nil && doc.Source.Name != "" {
-		caption += ": " + texEscape(doc.Source.Name)
+	if n := sourceName(doc); n != "" {
+		caption += ": " + texEscape(n)
 	}
 	e.print("\\caption{" + caption + "}\n")
 	sim := false
@@ -58,7 +59,8 @@ func WriteLaTeX(w io.Writer, doc *schema.Document) error {
 	}
 	e.print("\\hline\n")
 	notes := "Notes: " + texEscape(strings.Join(settingsNotes(&doc.Settings), "; ")) +
-		". Stars: * $p<0.10$, ** $p<0.05$, *** $p<0.01$ (simulated $p$-value or critical values when there is no asymptotic one)."
+		". Stars: * $p<0.10$, ** $p<0.05$, *** $p<0.01$ (simulated $p$-value or critical values when there is no asymptotic one). " +
+		"Caution: " + texEscape(caution(doc))
 	t.span(texWide, "\\footnotesize "+notes)
 	e.print("\\end{tabular}\n\\end{table}\n")
 	return e.err
@@ -86,7 +88,7 @@ func (t *texTable) series(s *schema.Series) {
 	t.span("l", head)
 	for i := range s.Results {
 		r := &s.Results[i]
-		variant := strings.TrimSpace(r.Variant + " " + r.Shift)
+		variant, _ := variantText(r)
 		stat := texNum(r.Statistic, stars(starsP(r.PValue, resultPBound(r)), r.PValueSim, r.Statistic, r.CriticalValues, r.Tail))
 		cv5 := "--"
 		if c, ok := cv(r.CriticalValues, "0.05"); ok {
@@ -153,16 +155,61 @@ var texReplacer = strings.NewReplacer(
 	"<", `\textless{}`, ">", `\textgreater{}`, "|", `\textbar{}`, "\n", " ", "\r", " ",
 )
 
-// texEscape escapes text for LaTeX.
-func texEscape(s string) string { return texReplacer.Replace(s) }
+// texEscape escapes text for LaTeX: control characters shown visibly,
+// special characters replaced, and characters that a LaTeX run with the
+// default fonts cannot typeset (anything beyond Latin-1 but a few
+// typographic marks, and the six Latin-1 letters and guillemets the default
+// encoding lacks) written as their code point, "[U+FF1D]", so that the
+// fragment compiles with pdflatex and no extra package.
+func texEscape(s string) string { return texReplacer.Replace(texChars(outText(s))) }
 
-// texP formats a p-value in math mode, as a bound ("$<0.001$") when bound
-// is "<" or ">", or "--" when p is nil or not finite.
-func texP(p *float64, bound string) string {
-	if p == nil || !finite(*p) || bound == "" {
-		return texNum(p, "")
+// texMissing are the Latin-1 characters the default OT1 font encoding lacks
+// (found by running pdflatex on each character of U+00A1..U+00FF).
+const texMissing = "«»ÐÞðþ"
+
+// texExtra are characters beyond Latin-1 that pdflatex typesets by default.
+const texExtra = "–—‘’“”…€•™"
+
+// texChars writes every character outside what pdflatex typesets by default
+// as "[U+XXXX]".
+func texChars(s string) string {
+	ok := func(r rune) bool {
+		if r < 0x80 {
+			return true
+		}
+		if r >= 0xa0 && r <= 0xff {
+			return !strings.ContainsRune(texMissing, r)
+		}
+		return strings.ContainsRune(texExtra, r)
 	}
-	return "$" + boundNum(*p, bound) + "$"
+	clean := true
+	for _, r := range s {
+		if !ok(r) {
+			clean = false
+			break
+		}
+	}
+	if clean {
+		return s
+	}
+	var b strings.Builder
+	for _, r := range s {
+		if ok(r) {
+			b.WriteRune(r)
+		} else {
+			b.WriteString(fmt.Sprintf("[U+%04X]", r))
+		}
+	}
+	return b.String()
+}
+
+// texP formats a p-value in math mode as schema.FormatP writes it
+// ("$0.620$", "$<0.001$"), or "--" when p is nil or not finite.
+func texP(p *float64, bound string) string {
+	if p == nil || !finite(*p) {
+		return "--"
+	}
+	return "$" + schema.FormatP(p, bound) + "$"
 }
 
 // starsP is the p-value the stars read: a lower-end bound "<p" means the

@@ -165,18 +165,28 @@ func TestLaTeXCompiles(t *testing.T) {
 	if engine == "" {
 		t.Skip("no LaTeX engine on PATH")
 	}
-	var buf bytes.Buffer
-	if err := WriteLaTeX(&buf, fixtureDoc()); err != nil {
-		t.Fatal(err)
-	}
-	dir := t.TempDir()
-	src := "\\documentclass{article}\n\\begin{document}\n" + buf.String() + "\\end{document}\n"
-	if err := os.WriteFile(filepath.Join(dir, "r.tex"), []byte(src), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	cmd := exec.Command(engine, "-interaction=nonstopmode", "-halt-on-error", "r.tex")
-	cmd.Dir = dir
-	if out, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("%s failed: %v\n%s", engine, err, out)
+	hostile, _ := hostileDoc()
+	for name, doc := range map[string]*schema.Document{"fixture": fixtureDoc(), "hostile": hostile} {
+		var buf bytes.Buffer
+		if err := WriteLaTeX(&buf, doc); err != nil {
+			t.Fatal(err)
+		}
+		dir := t.TempDir()
+		src := "\\documentclass{article}\n\\begin{document}\n" + buf.String() + "\\end{document}\n"
+		if err := os.WriteFile(filepath.Join(dir, "r.tex"), []byte(src), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		// The hostile names hold \input{/etc/passwd} and \write18: escaped,
+		// they typeset as text; unescaped, the run would read the file or
+		// fail, and the log would show it.
+		cmd := exec.Command(engine, "-interaction=nonstopmode", "-halt-on-error", "-no-shell-escape", "r.tex")
+		cmd.Dir = dir
+		out, err := cmd.CombinedOutput()
+		if err != nil {
+			t.Fatalf("%s: %s failed: %v\n%s", name, engine, err, out)
+		}
+		if strings.Contains(string(out), "/etc/passwd") || strings.Contains(string(out), "write18") {
+			t.Errorf("%s: the log shows a command from a name:\n%s", name, out)
+		}
 	}
 }

@@ -19,8 +19,8 @@ func WriteMarkdown(w io.Writer, doc *schema.Document) error {
 	}
 	e := &errWriter{w: w}
 	title := "# rootshift results"
-	if doc.Source != nil && doc.Source.Name != "" {
-		title += ": " + mdText(doc.Source.Name)
+	if n := sourceName(doc); n != "" {
+		title += ": " + mdText(n)
 	}
 	e.print(title + "\n\n")
 	if doc.Version != "" {
@@ -52,6 +52,15 @@ func mdSeries(e *errWriter, s *schema.Series) {
 		}
 		if v.Window != nil {
 			items = append(items, "Window: "+windowText(v.Window))
+		}
+		if v.Reliability != nil {
+			items = append(items, "Error rate: "+reliabilityText(v.Reliability))
+		}
+		for k := range v.Stages {
+			items = append(items, "Stage "+strconv.Itoa(k+1)+", "+stageText(&v.Stages[k]))
+		}
+		for _, c := range v.Context {
+			items = append(items, "Context: "+c)
 		}
 		for _, t := range v.Supporting {
 			items = append(items, "For: "+t)
@@ -94,7 +103,7 @@ func mdSeries(e *errWriter, s *schema.Series) {
 		}
 		for i := range s.Results {
 			r := &s.Results[i]
-			variant := strings.TrimSpace(r.Variant + " " + r.Shift)
+			variant, vdetail := variantText(r)
 			cv5 := "n/a"
 			if c, ok := cv(r.CriticalValues, "0.05"); ok {
 				cv5 = num(c, "n/a")
@@ -104,6 +113,9 @@ func mdSeries(e *errWriter, s *schema.Series) {
 				cells = append(cells, simP(r, "n/a"))
 			}
 			var extra []string
+			if vdetail != "" {
+				extra = append(extra, vdetail)
+			}
 			if len(r.Breaks) > 0 {
 				extra = append(extra, breaksText(r.Breaks))
 			}
@@ -155,14 +167,45 @@ func mdSeries(e *errWriter, s *schema.Series) {
 	}
 }
 
-// mdReplacer escapes the characters that Markdown would read as markup.
-var mdReplacer = strings.NewReplacer(
-	`\`, `\\`, "`", "\\`", "*", `\*`, "_", `\_`, "[", `\[`, "]", `\]`,
-	"<", "&lt;", ">", "&gt;", "#", `\#`, "|", `\|`, "$", `\$`, "\n", " ", "\r", " ",
-)
+// mdText escapes running text for Markdown (CommonMark with the common
+// table, strikethrough and math extensions): control characters are shown
+// visibly, the characters that start emphasis, code, links, headings, table
+// cells, strikethrough or math get a backslash, and "<" and "&" get one only
+// where they could open an HTML tag, an autolink or an entity (before a
+// letter, '/', '!', '?' or '#'), so that "p<0.001" reads as written. A ">"
+// that begins the text is escaped (a quotation); elsewhere it is plain.
+func mdText(s string) string {
+	s = outText(s)
+	var b strings.Builder
+	b.Grow(len(s) + 8)
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch c {
+		case '\\', '`', '*', '_', '[', ']', '#', '|', '$', '~':
+			b.WriteByte('\\')
+		case '<':
+			if i+1 < len(s) && opensMarkup(s[i+1]) {
+				b.WriteByte('\\')
+			}
+		case '&':
+			if i+1 < len(s) && (isLetter(s[i+1]) || s[i+1] == '#') {
+				b.WriteByte('\\')
+			}
+		case '>':
+			if strings.TrimLeft(s[:i], " ") == "" {
+				b.WriteByte('\\')
+			}
+		}
+		b.WriteByte(c)
+	}
+	return b.String()
+}
 
-// mdText escapes running text.
-func mdText(s string) string { return mdReplacer.Replace(s) }
+// opensMarkup reports whether c after "<" could start an HTML tag, a
+// comment, a declaration, a processing instruction or an autolink.
+func opensMarkup(c byte) bool { return isLetter(c) || c == '/' || c == '!' || c == '?' }
+
+func isLetter(c byte) bool { return (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') }
 
 // mdCell escapes a table cell.
-func mdCell(s string) string { return mdReplacer.Replace(s) }
+func mdCell(s string) string { return mdText(s) }

@@ -40,9 +40,11 @@ func TestPBound(t *testing.T) {
 		{0.001, "simulation", nil, "<", "<0.001"},
 		{0.9992, "simulation", nil, ">", ">0.999"},
 		// Point values.
-		{0.0012, "simulation", nil, "", "0.0012"},
-		{0.01, "response surface", []string{"T = 5000 is beyond the table (T <= 1600)"}, "", "0.0100"},
-		{0.5, "response surface", nil, "", "0.5000"},
+		// Point values: three decimals, as in the verdict's sentences.
+		{0.0012, "simulation", nil, "", "0.001"},
+		{0.01, "response surface", []string{"T = 5000 is beyond the table (T <= 1600)"}, "", "0.010"},
+		{0.5, "response surface", nil, "", "0.500"},
+		{0.62014, "response surface", nil, "", "0.620"},
 	} {
 		r := schema.Result{PValue: fp(tc.p), PValueMethod: tc.method, Warnings: tc.warnings}
 		if b := resultPBound(&r); b != tc.bound {
@@ -123,7 +125,8 @@ func TestPBoundFromTests(t *testing.T) {
 }
 
 // TestCSVID: the id column is SOURCE:SERIES with a named source (the batch
-// summary CSV concatenates documents from many files), else the series name.
+// summary CSV concatenates documents from many files), else the series name;
+// SOURCE is the file's base name only, never its folders.
 func TestCSVID(t *testing.T) {
 	stat := -2.0
 	mk := func(src *schema.Source) *schema.Document {
@@ -136,7 +139,8 @@ func TestCSVID(t *testing.T) {
 		src  *schema.Source
 		want []string
 	}{
-		{&schema.Source{Name: "data/a.csv"}, []string{"data/a.csv:gdp", "data/a.csv:cpi"}},
+		{&schema.Source{Name: "data/a.csv"}, []string{"a.csv:gdp", "a.csv:cpi"}},
+		{&schema.Source{Name: `C:\Users\me\secret\a.csv`}, []string{"a.csv:gdp", "a.csv:cpi"}},
 		{&schema.Source{}, []string{"gdp", "cpi"}},
 		{nil, []string{"gdp", "cpi"}},
 	} {

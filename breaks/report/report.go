@@ -51,17 +51,44 @@ func Write(w io.Writer, format string, doc *schema.Document, inputs []dataset.Se
 type errWriter struct {
 	w   io.Writer
 	err error
+	// plain marks plain text (the table): print then also drops the folders
+	// of file paths, which in the escaped formats their escaping does.
+	plain bool
 }
 
+// print writes s with every control character other than the writer's own
+// line breaks shown visibly: a last guard behind each format's escaping.
 func (e *errWriter) print(s string) {
 	if e.err != nil {
 		return
+	}
+	s = visibleLines(s)
+	if e.plain {
+		s = noFolders(s)
 	}
 	_, e.err = io.WriteString(e.w, s)
 }
 
 func (e *errWriter) printf(format string, args ...any) {
 	e.print(fmt.Sprintf(format, args...))
+}
+
+// sourceName is the base name of the document's source (no folders: a
+// report must not carry the layout of the machine that ran it), or "".
+func sourceName(doc *schema.Document) string {
+	if doc.Source == nil {
+		return ""
+	}
+	return SafeName(doc.Source.Name)
+}
+
+// caution is the document's caution, or the schema's when it has none:
+// every report carries it.
+func caution(doc *schema.Document) string {
+	if doc.Caution != "" {
+		return doc.Caution
+	}
+	return schema.Caution
 }
 
 // finite reports whether x is neither NaN nor ±Inf.
@@ -192,7 +219,7 @@ func componentDecision(r *schema.Result, c *schema.Component) string {
 // breakLabel names observation index with its date when known.
 func breakLabel(index int, date string) string {
 	if date != "" {
-		return date
+		return visible(date)
 	}
 	return "obs " + strconv.Itoa(index)
 }
@@ -329,6 +356,12 @@ func windowText(w *schema.WindowCheck) string {
 		s += "; known-break test " + w.Known.Test + " " + num(*w.Known.Statistic, "n/a") +
 			" (" + resultDecision(w.Known) + ")"
 	}
+	if w.Test != nil {
+		s += "; " + windowTestText(w.Test)
+	}
+	if w.Answer != "" {
+		s += ". Answer: " + visible(w.Answer)
+	}
 	return s
 }
 
@@ -393,24 +426,123 @@ func settingsNotes(s *schema.Settings) []string {
 	}
 }
 
-// sortedKeys returns the keys of m in increasing order.
+// sortedKeys returns the keys of m in natural order: runs of digits
+// compare as numbers, so gamma2 comes before gamma10.
 func sortedKeys(m map[string]float64) []string {
 	keys := make([]string, 0, len(m))
 	for k := range m {
 		keys = append(keys, k)
 	}
-	sort.Strings(keys)
+	sort.Slice(keys, func(i, j int) bool { return naturalLess(keys[i], keys[j]) })
 	return keys
 }
 
-// estimatesText lists named estimates as "name=value".
+// naturalLess compares a and b with runs of ASCII digits read as numbers
+// (leading zeros ignored, then the shorter run first); ties fall back to
+// the plain byte order.
+func naturalLess(a, b string) bool {
+	i, j := 0, 0
+	for i < len(a) && j < len(b) {
+		ca, cb := a[i], b[j]
+		if isDigit(ca) && isDigit(cb) {
+			si, sj := i, j
+			for i < len(a) && isDigit(a[i]) {
+				i++
+			}
+			for j < len(b) && isDigit(b[j]) {
+				j++
+			}
+			da := strings.TrimLeft(a[si:i], "0")
+			db := strings.TrimLeft(b[sj:j], "0")
+			if len(da) != len(db) {
+				return len(da) < len(db)
+			}
+			if da != db {
+				return da < db
+			}
+			continue
+		}
+		if ca != cb {
+			return ca < cb
+		}
+		i++
+		j++
+	}
+	if len(a)-i != len(b)-j {
+		return len(a)-i < len(b)-j
+	}
+	return a < b
+}
+
+func isDigit(c byte) bool { return c >= '0' && c <= '9' }
+
+// value formats a named quantity that may be a count: an integer prints as
+// an integer ("4", not "4.0000"), anything else with four decimals.
+func value(x float64, na string) string {
+	if finite(x) && x == math.Trunc(x) && math.Abs(x) < 1e15 {
+		return strconv.FormatInt(int64(x), 10)
+	}
+	return num(x, na)
+}
+
+// estimatesText lists named estimates as "name=value", in natural order,
+// counts as integers.
 func estimatesText(m map[string]float64) string {
 	keys := sortedKeys(m)
 	parts := make([]string, len(keys))
 	for i, k := range keys {
-		parts[i] = k + "=" + num(m[k], "n/a")
+		parts[i] = visible(k) + "=" + value(m[k], "n/a")
 	}
 	return strings.Join(parts, ", ")
+}
+
+// variantMax is the longest variant label the tables print; a longer one is
+// cut at its first parenthesis or comma and the rest goes to the notes.
+const variantMax = 24
+
+// shortVariant splits a variant label into the short form the result tables
+// print and the details (parameters, options) that go to the notes under
+// the row: "statistic = UDmax (q=1, pure structural change, trimming 0.15,
+// M=5)" becomes "UDmax" with the details "q=1, pure structural change,
+// trimming 0.15, M=5". A short label is returned whole.
+func shortVariant(v string) (short, detail string) {
+	v = strings.TrimSpace(visible(v))
+	if len([]rune(v)) <= variantMax {
+		return v, ""
+	}
+	head := v
+	if i := strings.Index(head, " = "); i >= 0 && i < 20 {
+		head = strings.TrimSpace(head[i+3:]) // "statistic = UDmax": the name is enough
+	}
+	if i := strings.Index(head, " ("); i > 0 {
+		detail = strings.TrimSuffix(strings.TrimSpace(head[i+2:]), ")")
+		head = strings.TrimSpace(head[:i])
+	}
+	if len([]rune(head)) > variantMax {
+		parts := strings.Split(head, ", ")
+		n := 1
+		for l := len([]rune(parts[0])); n < len(parts) && l+2+len([]rune(parts[n])) <= variantMax; n++ {
+			l += 2 + len([]rune(parts[n]))
+		}
+		rest := strings.Join(parts[n:], ", ")
+		head = strings.Join(parts[:n], ", ")
+		if detail != "" && rest != "" {
+			detail = rest + "; " + detail
+		} else if rest != "" {
+			detail = rest
+		}
+	}
+	return head, detail
+}
+
+// variantText is the short variant of r with its break shift appended
+// ("model A level"), and the details of the variant for the notes.
+func variantText(r *schema.Result) (short, detail string) {
+	short, detail = shortVariant(r.Variant)
+	if r.Shift != "" {
+		short = strings.TrimSpace(short + " " + visible(r.Shift))
+	}
+	return short, detail
 }
 
 // surfaceText summarises a two-break surface.

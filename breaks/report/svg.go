@@ -12,8 +12,21 @@ import (
 
 // Plot geometry and colours. Colours are plain hex values (no CSS
 // variables) so that a plot looks the same in any page.
+//
+// Text at phone width: the plots scale with their viewBox to the width of
+// the page, 360 CSS pixels of content on a common phone (390 px wide less
+// the margins). fontBase is chosen so that the smallest text is still
+// phoneMinFont pixels there: 16 * 360 / 640 = 9 (about 9 px is the least
+// that reads on a phone: common practice, no source).
 const (
 	svgWidth      = 640
+	phoneWidth    = 360
+	phoneMinFont  = 9
+	fontBase      = 16
+	fontTitle     = 17
+	charWidth     = 0.56 * fontBase // average advance of a sans-serif glyph
+	lineGap       = fontBase + 5
+	colWindow     = "#aed6f1"
 	colBackground = "#ffffff"
 	colAxis       = "#333333"
 	colGrid       = "#e3e3e3"
@@ -74,11 +87,11 @@ func px(v float64) string {
 	return strconv.FormatFloat(snap(v), 'f', 1, 64)
 }
 
-// esc escapes text for XML (and HTML): markup characters become
-// references, and characters that XML forbids become U+FFFD.
+// esc escapes text for XML (and HTML): control characters are shown
+// visibly (see visible), then markup characters become references.
 func esc(s string) string {
 	var b strings.Builder
-	_ = xml.EscapeText(&b, []byte(s))
+	_ = xml.EscapeText(&b, []byte(outText(s)))
 	return b.String()
 }
 
@@ -93,7 +106,7 @@ func newSVG(height int, title string) *svgBuilder {
 	b := &svgBuilder{h: height}
 	h := strconv.Itoa(height)
 	b.WriteString(`<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ` + strconv.Itoa(svgWidth) + " " + h +
-		`" width="` + strconv.Itoa(svgWidth) + `" height="` + h + `" role="img" font-family="sans-serif" font-size="11">`)
+		`" width="` + strconv.Itoa(svgWidth) + `" height="` + h + `" role="img" font-family="sans-serif" font-size="` + strconv.Itoa(fontBase) + `">`)
 	b.WriteString("<title>" + esc(title) + "</title>")
 	b.WriteString(`<rect x="0" y="0" width="` + strconv.Itoa(svgWidth) + `" height="` + h + `" fill="` + colBackground + `"/>`)
 	return b
@@ -192,10 +205,14 @@ func (b *svgBuilder) polyline(f *frame, xs, ys []float64, stroke, extra string) 
 // axes draws the plot border, horizontal grid lines with y labels and x
 // ticks with labels from xlabel.
 func (b *svgBuilder) axes(f *frame, yticks, xticks []float64, ystep float64, xlabel func(float64) string) {
+	half := 0.0
+	for _, v := range xticks {
+		half = math.Max(half, textWidth(xlabel(v))/2)
+	}
 	for _, v := range yticks {
 		y := f.Y(v)
 		b.line(f.left, y, f.left+f.width, y, colGrid, "")
-		b.text(f.left-6, y+4, "end", colText, tickLabel(v, ystep), "")
+		b.text(f.left-6, y+5, "end", colText, tickLabel(v, ystep), "")
 	}
 	bottom := f.top + f.height
 	for _, v := range xticks {
@@ -203,12 +220,12 @@ func (b *svgBuilder) axes(f *frame, yticks, xticks []float64, ystep float64, xla
 		b.line(x, bottom, x, bottom+4, colAxis, "")
 		anchor := "middle"
 		switch {
-		case x > f.left+f.width-24:
+		case x > f.left+f.width-half:
 			anchor = "end"
-		case x < f.left+24:
+		case x < f.left+half:
 			anchor = "start"
 		}
-		b.text(x, bottom+16, anchor, colText, xlabel(v), "")
+		b.text(x, bottom+fontBase+3, anchor, colText, xlabel(v), "")
 	}
 	b.rect(f.left, f.top, f.width, f.height, "none", ` stroke="`+colAxis+`"`)
 }
@@ -342,20 +359,68 @@ type legendItem struct {
 	kind          int // 0 line, 1 dashed line, 2 filled box
 }
 
-// legend draws items left to right above the plot area.
+// textWidth estimates the width of s at the base font size.
+func textWidth(s string) float64 { return charWidth * float64(len([]rune(s))) }
+
+// legendRows lays items out left to right from x, wrapping at the plot's
+// right edge; it returns the row of each item and the number of rows.
+func legendRows(x float64, items []legendItem) ([]int, []float64, int) {
+	rows := make([]int, len(items))
+	xs := make([]float64, len(items))
+	row, cx := 0, x
+	for i, it := range items {
+		w := 22 + textWidth(it.label) + 16
+		if cx > x && cx+w-16 > svgWidth-8 {
+			row++
+			cx = x
+		}
+		rows[i], xs[i] = row, cx
+		cx += w
+	}
+	if len(items) == 0 {
+		return rows, xs, 0
+	}
+	return rows, xs, row + 1
+}
+
+// legend draws items left to right from (x, y), wrapping onto further rows
+// lineGap below.
 func (b *svgBuilder) legend(x, y float64, items []legendItem) {
-	for _, it := range items {
+	rows, xs, _ := legendRows(x, items)
+	for i, it := range items {
+		lx, ly := xs[i], y+float64(rows[i])*lineGap
 		switch it.kind {
 		case 0:
-			b.line(x, y-4, x+18, y-4, it.colour, ` stroke-width="2"`)
+			b.line(lx, ly-5, lx+18, ly-5, it.colour, ` stroke-width="2"`)
 		case 1:
-			b.line(x, y-4, x+18, y-4, it.colour, ` stroke-width="1.5" stroke-dasharray="5,3"`)
+			b.line(lx, ly-5, lx+18, ly-5, it.colour, ` stroke-width="1.5" stroke-dasharray="5,3"`)
 		default:
-			b.rect(x, y-10, 18, 10, it.colour, ` fill-opacity="0.6"`)
+			b.rect(lx, ly-12, 18, 12, it.colour, ` fill-opacity="0.6"`)
 		}
-		b.text(x+22, y, "start", colText, it.label, "")
-		x += 22 + 6.5*float64(len([]rune(it.label))) + 14
+		b.text(lx+22, ly, "start", colText, it.label, "")
 	}
+}
+
+// plotTop is the top of the plot area under a title and a legend of n rows.
+func plotTop(n int) float64 { return 26 + float64(max(n, 1))*lineGap + 6 }
+
+// plotLeft is the left edge of the plot area: room for the widest y label.
+func plotLeft(yticks []float64, ystep float64) float64 {
+	w := 0.0
+	for _, v := range yticks {
+		w = math.Max(w, textWidth(tickLabel(v, ystep)))
+	}
+	return math.Max(48, math.Ceil(w)+12)
+}
+
+// titleText cuts a plot title to the width of the plot.
+func titleText(s string) string {
+	r := []rune(s)
+	most := int(math.Floor(float64(svgWidth-24) / (charWidth * fontTitle / fontBase)))
+	if len(r) <= most {
+		return s
+	}
+	return string(r[:most-1]) + "…"
 }
 
 // seriesDates returns s.Dates when they label every observation.
@@ -370,9 +435,30 @@ func seriesDates(s *dataset.Series) []string {
 // when s.Dates labels every observation): a line broken at missing values,
 // a vertical line between observations TB and TB+1 for each break, the
 // confidence interval of each break (Lower..Upper) shaded, and explosive
-// episodes shaded. It returns a complete <svg> element.
+// episodes shaded. Dated series get ticks at calendar boundaries (years, or
+// quarters for a short sample). It returns a complete <svg> element.
 func SeriesSVG(s dataset.Series, breaks []schema.Break, episodes []schema.Episode) string {
-	const height = 300
+	return seriesSVG(s, breaks, episodes, nil)
+}
+
+// SeriesPlot is SeriesSVG for the series sr of a document: the breaks of
+// PlotBreaks, the explosive episodes of its results, and the analyst's
+// suspected window shaded when the verdict locates it (Window.FromIndex and
+// ToIndex).
+func SeriesPlot(s dataset.Series, sr *schema.Series) string {
+	var episodes []schema.Episode
+	for i := range sr.Results {
+		episodes = append(episodes, sr.Results[i].Episodes...)
+	}
+	var w *schema.WindowCheck
+	if sr.Verdict != nil {
+		w = sr.Verdict.Window
+	}
+	return seriesSVG(s, PlotBreaks(sr), episodes, w)
+}
+
+func seriesSVG(s dataset.Series, breaks []schema.Break, episodes []schema.Episode, window *schema.WindowCheck) string {
+	const height = 320
 	title := "Series " + s.Name
 	if len(breaks) > 0 {
 		title += " with estimated break dates"
@@ -381,7 +467,7 @@ func SeriesSVG(s dataset.Series, breaks []schema.Break, episodes []schema.Episod
 		title += " and explosive episodes"
 	}
 	b := newSVG(height, title)
-	b.text(12, 16, "start", colText, s.Name, ` font-size="13" font-weight="bold"`)
+	b.text(12, 20, "start", colText, titleText(s.Name), ` font-size="`+strconv.Itoa(fontTitle)+`" font-weight="bold"`)
 	T := len(s.Values)
 	ys := s.Values
 	lo, hi := dataRange(ys)
@@ -395,38 +481,72 @@ func SeriesSVG(s dataset.Series, breaks []schema.Break, episodes []schema.Episod
 	if !anyFinite {
 		return b.noData("no observations to plot")
 	}
-	f := &frame{x0: 1, x1: float64(T), y0: lo, y1: hi, left: 64, top: 46, width: svgWidth - 64 - 16, height: height - 46 - 44}
+	hasWindow := window != nil && window.FromIndex >= 1 && window.ToIndex >= window.FromIndex && window.FromIndex <= T
+	hasCI := false
+	for _, br := range breaks {
+		if br.Lower > 0 && br.Upper >= br.Lower {
+			hasCI = true
+		}
+	}
+	items := []legendItem{{"series", colSeries, 0}}
+	if len(episodes) > 0 {
+		items = append(items, legendItem{"explosive episode", colEpisode, 2})
+	}
+	if len(breaks) > 0 {
+		items = append(items, legendItem{"break", colBreak, 1})
+	}
+	if hasCI {
+		items = append(items, legendItem{"break confidence interval", colCI, 2})
+	}
+	if hasWindow {
+		items = append(items, legendItem{"suspected window", colWindow, 2})
+	}
+	yticks, ystep := niceTicks(lo, hi, 5)
+	left := plotLeft(yticks, ystep)
+	_, _, nrows := legendRows(left, items)
+	top := plotTop(nrows)
+	f := &frame{x0: 1, x1: float64(T), y0: lo, y1: hi, left: left, top: top, width: svgWidth - left - 16, height: height - top - 2*lineGap - 6}
 	if T == 1 {
 		f.x0, f.x1 = 0, 2
 	}
 	dates := seriesDates(&s)
 	bottom := f.top + f.height
-	var items []legendItem
-	items = append(items, legendItem{"series", colSeries, 0})
+	if hasWindow {
+		x1, x2 := f.X(float64(window.FromIndex)-0.5), f.X(float64(min(window.ToIndex, T))+0.5)
+		b.rect(x1, f.top, x2-x1, f.height, colWindow, ` fill-opacity="0.45"`)
+	}
 	for _, e := range episodes {
 		x1, x2 := f.X(float64(e.Start.Index)-0.5), f.X(float64(e.End.Index)+0.5)
 		b.rect(x1, f.top, x2-x1, f.height, colEpisode, ` fill-opacity="0.6"`)
 	}
-	if len(episodes) > 0 {
-		items = append(items, legendItem{"explosive episode", colEpisode, 2})
-	}
-	hasCI := false
 	for _, br := range breaks {
 		if br.Lower > 0 && br.Upper >= br.Lower {
-			hasCI = true
 			x1, x2 := f.X(float64(br.Lower)+0.5), f.X(float64(br.Upper)+0.5)
 			b.rect(x1, f.top, x2-x1, f.height, colCI, ` fill-opacity="0.35"`)
 		}
 	}
-	yticks, ystep := niceTicks(lo, hi, 5)
 	xticks := indexTicks(1, max(T, 1), 6)
-	b.axes(f, yticks, xticks, ystep, func(v float64) string {
-		i := int(v)
-		if dates != nil && i >= 1 && i <= len(dates) {
-			return dates[i-1]
+	xlabel := func(v float64) string { return strconv.Itoa(int(v)) }
+	if dates != nil {
+		labels := map[float64]string{}
+		if ts, ls := calendarTicks(dates, 8); len(ts) >= 2 {
+			xticks = ts
+			for k, t := range ts {
+				labels[t] = ls[k]
+			}
 		}
-		return strconv.Itoa(i)
-	})
+		xlabel = func(v float64) string {
+			if l, ok := labels[v]; ok {
+				return l
+			}
+			i := int(v)
+			if i >= 1 && i <= len(dates) {
+				return dates[i-1]
+			}
+			return strconv.Itoa(i)
+		}
+	}
+	b.axes(f, yticks, xticks, ystep, xlabel)
 	xs := make([]float64, T)
 	for i := range xs {
 		xs[i] = float64(i + 1)
@@ -435,15 +555,14 @@ func SeriesSVG(s dataset.Series, breaks []schema.Break, episodes []schema.Episod
 	for _, br := range breaks {
 		x := f.X(float64(br.Index) + 0.5)
 		b.line(x, f.top, x, bottom, colBreak, ` stroke-width="1.5" stroke-dasharray="6,3"`)
-		b.text(x+3, f.top+12, "start", colBreak, breakLabel(br.Index, br.Date), "")
+		label := breakLabel(br.Index, br.Date)
+		anchor, lx := "start", x+3
+		if lx+textWidth(label) > f.left+f.width {
+			anchor, lx = "end", x-3
+		}
+		b.text(lx, f.top+fontBase, anchor, colBreak, label, "")
 	}
-	if len(breaks) > 0 {
-		items = append(items, legendItem{"break", colBreak, 1})
-	}
-	if hasCI {
-		items = append(items, legendItem{"break confidence interval", colCI, 2})
-	}
-	b.legend(f.left, 36, items)
+	b.legend(left, 26+lineGap, items)
 	xtitle := "observation"
 	if dates != nil {
 		xtitle = "date"
@@ -460,7 +579,7 @@ func SeriesSVG(s dataset.Series, breaks []schema.Break, episodes []schema.Episod
 // Result.Surface (the best statistic over second breaks for each first
 // break). It returns a complete <svg> element.
 func PathSVG(r schema.Result) string {
-	const height = 280
+	const height = 300
 	var xs, ys, crit []float64
 	var title, xtitle, critLabel string
 	critConst, hasConst := 0.0, false
@@ -514,7 +633,7 @@ func PathSVG(r schema.Result) string {
 		return b.noData("no search path to plot")
 	}
 	b := newSVG(height, title)
-	b.text(12, 16, "start", colText, title, ` font-size="13" font-weight="bold"`)
+	b.text(12, 20, "start", colText, titleText(title), ` font-size="`+strconv.Itoa(fontTitle)+`" font-weight="bold"`)
 	cvals := crit
 	if hasConst {
 		cvals = []float64{critConst}
@@ -533,12 +652,26 @@ func PathSVG(r schema.Result) string {
 	if xmin < xmax {
 		xlo, xhi = xmin, xmax
 	}
-	f := &frame{x0: xlo, x1: xhi, y0: lo, y1: hi, left: 64, top: 46, width: svgWidth - 64 - 16, height: height - 46 - 44}
+	drawBreaks := len(r.Path) > 0 || (r.Surface != nil && len(r.Path) == 0 && r.Sequence == nil)
+	items := []legendItem{{"statistic", colSeries, 0}}
+	if hasConst || crit != nil {
+		items = append(items, legendItem{critLabel, colCritical, 1})
+	}
+	if drawBreaks && len(r.Breaks) > 0 {
+		items = append(items, legendItem{"chosen break", colBreak, 1})
+	}
+	if len(r.Episodes) > 0 {
+		items = append(items, legendItem{"explosive episode", colEpisode, 2})
+	}
+	yticks, ystep := niceTicks(lo, hi, 5)
+	left := plotLeft(yticks, ystep)
+	_, _, nrows := legendRows(left, items)
+	top := plotTop(nrows)
+	f := &frame{x0: xlo, x1: xhi, y0: lo, y1: hi, left: left, top: top, width: svgWidth - left - 16, height: height - top - 2*lineGap - 6}
 	for _, e := range r.Episodes {
 		x1, x2 := f.X(float64(e.Start.Index)-0.5), f.X(float64(e.End.Index)+0.5)
 		b.rect(x1, f.top, x2-x1, f.height, colEpisode, ` fill-opacity="0.6"`)
 	}
-	yticks, ystep := niceTicks(lo, hi, 5)
 	var xticks []float64
 	if xmin < xmax && xmax-xmin < 1e9 {
 		xticks = indexTicks(int(math.Ceil(xmin)), int(math.Floor(xmax)), 6)
@@ -546,7 +679,6 @@ func PathSVG(r schema.Result) string {
 		xticks = []float64{xmin}
 	}
 	b.axes(f, yticks, xticks, ystep, func(v float64) string { return tickLabel(v, 1) })
-	items := []legendItem{{"statistic", colSeries, 0}}
 	if hasConst {
 		y := f.Y(critConst)
 		b.line(f.left, y, f.left+f.width, y, colCritical, ` stroke-width="1.5" stroke-dasharray="6,4"`)
@@ -554,11 +686,8 @@ func PathSVG(r schema.Result) string {
 	if crit != nil {
 		b.polyline(f, xs, crit, colCritical, ` stroke-dasharray="6,4"`)
 	}
-	if hasConst || crit != nil {
-		items = append(items, legendItem{critLabel, colCritical, 1})
-	}
 	b.polyline(f, xs, ys, colSeries, "")
-	if len(r.Path) > 0 || (r.Surface != nil && len(r.Path) == 0 && r.Sequence == nil) {
+	if drawBreaks {
 		for k, br := range r.Breaks {
 			if len(r.Path) == 0 && k > 0 {
 				break // the surface rows are indexed by the first break only
@@ -571,16 +700,15 @@ func PathSVG(r schema.Result) string {
 					break
 				}
 			}
-			b.text(x+3, f.top+12, "start", colBreak, breakLabel(br.Index, br.Date), "")
-		}
-		if len(r.Breaks) > 0 {
-			items = append(items, legendItem{"chosen break", colBreak, 1})
+			label := breakLabel(br.Index, br.Date)
+			anchor, lx := "start", x+3
+			if lx+textWidth(label) > f.left+f.width {
+				anchor, lx = "end", x-3
+			}
+			b.text(lx, f.top+fontBase, anchor, colBreak, label, "")
 		}
 	}
-	if len(r.Episodes) > 0 {
-		items = append(items, legendItem{"explosive episode", colEpisode, 2})
-	}
-	b.legend(f.left, 36, items)
+	b.legend(left, 26+lineGap, items)
 	b.text(f.left+f.width/2, height-8, "middle", colText, xtitle, "")
 	return b.close()
 }

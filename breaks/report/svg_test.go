@@ -170,7 +170,7 @@ func TestACFSVG(t *testing.T) {
 	for i := range x {
 		x[i] = math.Sin(float64(i * i))
 	}
-	f := &frame{x0: 0.5, x1: 10.5, y0: -1, y1: 1, left: 64, top: 34 + 14, width: svgWidth - 64 - 16, height: 120}
+	f := acfFrame(10, 36) // the first panel's top edge (ACFSVG)
 	y := px(f.Y(0.196))
 	if svg := ACFSVG(dataset.Series{Name: "w", Values: x}, 10); !strings.Contains(svg, `y1="`+y+`"`) {
 		t.Errorf("no band line at y=%s for +0.196", y)

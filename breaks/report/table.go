@@ -21,13 +21,13 @@ func WriteTable(w io.Writer, doc *schema.Document) error {
 	if doc == nil {
 		return ErrNoDocument
 	}
-	e := &errWriter{w: w}
+	e := &errWriter{w: w, plain: true}
 	title := "rootshift"
 	if doc.Version != "" {
 		title += " " + doc.Version
 	}
-	if doc.Source != nil && doc.Source.Name != "" {
-		title += ": " + doc.Source.Name
+	if n := sourceName(doc); n != "" {
+		title += ": " + visible(n)
 		if doc.Source.Rows > 0 {
 			title += " (" + strconv.Itoa(doc.Source.Rows) + " rows)"
 		}
@@ -35,6 +35,10 @@ func WriteTable(w io.Writer, doc *schema.Document) error {
 	e.print(title + "\n")
 	for _, l := range wrap("settings: "+strings.Join(settingsNotes(&doc.Settings), "; "), tableWidth-2) {
 		e.print(l + "\n")
+	}
+	if len(doc.Series) > 1 {
+		e.print("\n")
+		tableOverview(e, doc)
 	}
 	for i := range doc.Series {
 		e.print("\n")
@@ -80,6 +84,15 @@ func tableSeries(e *errWriter, s *schema.Series) {
 		if v.Window != nil {
 			para("", windowText(v.Window))
 		}
+		if v.Reliability != nil {
+			para("error rate: ", reliabilityText(v.Reliability))
+		}
+		for k := range v.Stages {
+			para("stage "+strconv.Itoa(k+1)+", ", stageText(&v.Stages[k]))
+		}
+		for _, c := range v.Context {
+			para("context: ", c)
+		}
 		for _, t := range v.Supporting {
 			para("+ ", t)
 		}
@@ -97,17 +110,15 @@ func tableSeries(e *errWriter, s *schema.Series) {
 		if r.PValueSim != nil {
 			hasSim = true
 		}
+		variant, vdetail := variantText(r)
 		row := tableRow{
-			test:     r.Test,
-			variant:  r.Variant,
+			test:     visible(r.Test),
+			variant:  variant,
 			stat:     numP(r.Statistic, "n/a"),
 			p:        resultP(r, "n/a"),
 			psim:     simP(r, "-"),
 			lags:     strconv.Itoa(r.Lags),
 			decision: resultDecision(r),
-		}
-		if r.Shift != "" {
-			row.variant = strings.TrimSpace(row.variant + " " + r.Shift)
 		}
 		if c, ok := cv(r.CriticalValues, "0.05"); ok {
 			row.cv5 = num(c, "n/a")
@@ -122,6 +133,9 @@ func tableSeries(e *errWriter, s *schema.Series) {
 			rows = append(rows, componentRow(r, &r.BreakTests[j]))
 		}
 		last := &rows[len(rows)-1]
+		if vdetail != "" {
+			last.details = append(last.details, "variant: "+vdetail)
+		}
 		if len(r.Breaks) > 0 {
 			last.details = append(last.details, "breaks: "+breaksText(r.Breaks))
 		}
@@ -132,7 +146,7 @@ func tableSeries(e *errWriter, s *schema.Series) {
 			last.details = append(last.details, "two-break search: "+surfaceText(r.Surface))
 		}
 		if r.Bandwidth != nil {
-			bw := "bandwidth " + numP(r.Bandwidth, "n/a")
+			bw := "bandwidth " + value(*r.Bandwidth, "n/a")
 			if r.Kernel != "" {
 				bw += " (" + r.Kernel + " kernel)"
 			}
@@ -194,7 +208,7 @@ func tableSeries(e *errWriter, s *schema.Series) {
 func componentRow(r *schema.Result, c *schema.Component) tableRow {
 	row := tableRow{
 		test:     "",
-		variant:  "  " + c.Name,
+		variant:  "  " + visible(c.Name),
 		stat:     numP(c.Statistic, "n/a"),
 		p:        compP(c, "n/a"),
 		psim:     "-",

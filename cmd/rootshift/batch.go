@@ -263,6 +263,9 @@ func verdictSink(w io.Writer) batch.Sink {
 			msgs = append(msgs, e.Message)
 		}
 		row[8] = strings.Join(msgs, "; ")
+		for i := range row {
+			row[i] = report.CSVCell(row[i]) // no formula, no control character
+		}
 		cw.Write(row)
 		cw.Flush()
 		return cw.Error()

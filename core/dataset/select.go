@@ -3,6 +3,7 @@ package dataset
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/rootshift/rootshift/core/schema"
@@ -130,7 +131,7 @@ func Select(t *Table, s schema.Settings) (series []Series, errs []SeriesError) {
 				}
 			}
 			if p == nil {
-				e := SeriesError{Series: c, Err: wrapf(ErrUnknownColumn, "%q is not a numeric column of %s", c, t.Name)}
+				e := SeriesError{Series: c, Err: wrapf(ErrUnknownColumn, "%q is not a numeric column of %s (%s)", c, t.Name, validColumns(t))}
 				for _, sk := range t.Skipped {
 					if strings.EqualFold(sk.ColumnName, c) {
 						e.Err = fmt.Errorf("%w: %q is not numeric: %v", ErrUnknownColumn, c, sk)
@@ -203,4 +204,25 @@ func selectOne(t *Table, p *Series, a, b int, kind string, lag int) (Series, *Se
 		out.Dates = append([]string(nil), p.Dates[first+i-base:first+j-base]...)
 	}
 	return out, nil
+}
+
+// validColumns lists the numeric columns of t for an unknown-column error:
+// "columns: a, b, c", the first 30 when there are more.
+func validColumns(t *Table) string {
+	const most = 30
+	names := make([]string, 0, min(len(t.Series), most))
+	for i := range t.Series {
+		if i == most {
+			break
+		}
+		names = append(names, strconv.Quote(t.Series[i].Name))
+	}
+	if len(names) == 0 {
+		return "it has no numeric column"
+	}
+	list := "valid columns: " + strings.Join(names, ", ")
+	if more := len(t.Series) - most; more > 0 {
+		list += fmt.Sprintf(" and %d more", more)
+	}
+	return list
 }
