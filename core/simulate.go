@@ -111,9 +111,13 @@ func Simulate(ctx context.Context, spec SimSpec, newRep func() func(r *rand.Rand
 }
 
 // SimulateTest simulates the null distribution of a registered test at
-// length T under cfg. The null DGP is info.Generate (default RandomWalk).
+// length T under cfg. The null DGP is info.GenerateFor(T, cfg) when set,
+// else info.Generate (default RandomWalk).
 func SimulateTest(ctx context.Context, info Info, T int, cfg *Config, spec SimSpec) (*Distribution, error) {
 	gen := info.Generate
+	if info.GenerateFor != nil {
+		gen = info.GenerateFor(T, cfg)
+	}
 	if gen == nil {
 		gen = RandomWalk
 	}
