@@ -13,7 +13,11 @@ package core
 //
 // Monthly data: Beaulieu, J.J. & Miron, J.A. (1993), "Seasonal unit roots
 // in aggregate U.S. data", J. Econometrics 55, 305-328, the same regression
-// with Δ₁₂ and twelve filtered regressors (see seasonal_monthly.go).
+// with Δ₁₂y_t on twelve filtered regressors: the zero frequency
+// (1 + L + ... + L¹¹)y_{t-1}, frequency π -(1 - L + L² - ... - L¹¹)y_{t-1},
+// and one pair for each of the complex frequencies π/6, π/3, π/2, 2π/3,
+// 5π/6 (cycles of 12, 6, 4, 3 and 2.4 months), each pair filtered so that
+// only the unit roots at that frequency remain.
 //
 // # One construction for both periods
 //
@@ -316,39 +320,17 @@ func (w *seasWork) regress(y []float64, S int, c seasCase, k, start int, full bo
 	if !full {
 		return o, f, nil
 	}
-	ssr, dof := f.SSR, float64(n-nc)
-	fstat := func(drop func(j int) bool, q int) (float64, error) {
-		w.sub = w.sub[:0]
-		for j := range nc {
-			if !drop(j) {
-				w.sub = append(w.sub, w.cols[j])
-			}
-		}
-		var ssrR float64
-		if len(w.sub) == 0 {
-			ssrR = tss
-		} else {
-			fr, err := w.ls.Fit(w.sub, w.dep)
-			if err != nil {
-				return 0, err
-			}
-			ssrR = fr.SSR
-		}
-		return math.Max(ssrR-ssr, 0) / float64(q) / (ssr / dof), nil
-	}
+	ssr := f.SSR
 	for k := 1; k < S/2; k++ {
-		a := 2 * k
-		v, err := fstat(func(j int) bool { return j == a || j == a+1 }, 2)
-		if err != nil {
+		if w.pair[k-1], err = w.fstat(2*k, 2*k+2, nc, ssr, tss); err != nil {
 			return nil, nil, err
 		}
-		w.pair[k-1] = v
 	}
 	o.FPair = w.pair
-	if o.FSeas, err = fstat(func(j int) bool { return j >= 1 && j < S }, S-1); err != nil {
+	if o.FSeas, err = w.fstat(1, S, nc, ssr, tss); err != nil {
 		return nil, nil, err
 	}
-	if o.FAll, err = fstat(func(j int) bool { return j < S }, S); err != nil {
+	if o.FAll, err = w.fstat(0, S, nc, ssr, tss); err != nil {
 		return nil, nil, err
 	}
 	for _, v := range [...]float64{o.T1, o.T2, o.FSeas, o.FAll} {
@@ -362,6 +344,28 @@ func (w *seasWork) regress(y []float64, S int, c seasCase, k, start int, full bo
 		}
 	}
 	return o, nil, nil
+}
+
+// fstat is the F statistic for dropping columns lo..hi-1 of the last
+// design (nc columns, unrestricted SSR ssr; tss = Σ dep², the SSR of the
+// empty model).
+func (w *seasWork) fstat(lo, hi, nc int, ssr, tss float64) (float64, error) {
+	w.sub = w.sub[:0]
+	for j := range nc {
+		if j < lo || j >= hi {
+			w.sub = append(w.sub, w.cols[j])
+		}
+	}
+	ssrR := tss
+	if len(w.sub) > 0 {
+		fr, err := w.ls.Fit(w.sub, w.dep)
+		if err != nil {
+			return 0, err
+		}
+		ssrR = fr.SSR
+	}
+	q, dof := float64(hi-lo), float64(len(w.dep)-nc)
+	return math.Max(ssrR-ssr, 0) / q / (ssr / dof), nil
 }
 
 // seasMaxLags is kmax for the seasonal regression of a series of length T:
