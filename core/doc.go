@@ -4,8 +4,9 @@
 // Phillips-Perron, KPSS, DF-GLS, ERS point-optimal, Ng-Perron M-tests), the
 // right-tailed explosive-root tests, the seasonal unit-root test (HEGY
 // quarterly, Beaulieu-Miron monthly) and the Seasonality diagnosis,
-// inference from published response surfaces, and the Monte Carlo engine that gives finite-sample p-values to
-// every test, the break-aware ones in package breaks included.
+// inference from published response surfaces, and the Monte Carlo engine
+// that gives finite-sample p-values to every test, the break-aware ones in
+// package breaks included.
 //
 // # Conventions
 //

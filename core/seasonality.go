@@ -35,6 +35,19 @@ import (
 	"github.com/rootshift/rootshift/core/schema"
 )
 
+// PeriodOf returns the number of observations per year for a frequency
+// name of core/dataset ("quarterly" 4, "monthly" 12), and 0 for every other
+// frequency (the seasonal test and Seasonality then do not apply).
+func PeriodOf(frequency string) int {
+	switch frequency {
+	case "quarterly":
+		return 4
+	case "monthly":
+		return 12
+	}
+	return 0
+}
+
 // Seasonal transforms recommended by Seasonality.
 const (
 	SeasonalTransformNone       = "none"
