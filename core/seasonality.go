@@ -31,6 +31,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/rootshift/rootshift/core/schema"
 )
@@ -141,6 +142,12 @@ func Seasonality(ctx context.Context, y []float64, period int, cfg *Config) (*Se
 	default:
 		rep.Transform = SeasonalTransformNone
 		rep.Reason = fmt.Sprintf("seasonal unit roots are rejected (F = %.2f, p = %.3f) and the seasonal means are not significant in %s (F = %.2f, p = %.3g)", rep.FSeasonal, rep.PSeasonal, rep.DummyOn, rep.DummyF, rep.DummyP)
+	}
+	if rep.UnitRoots && !rep.ZeroFrequencyRoot {
+		rep.Reason += "; the zero-frequency test rejects, so the seasonal difference also differences a series without a unit root at frequency zero"
+	}
+	if !rep.UnitRoots && len(rep.RootsAt) > 0 {
+		rep.Reason += "; the test at " + strings.Join(rep.RootsAt, ", ") + " alone does not reject"
 	}
 	return rep, nil
 }
