@@ -12,6 +12,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"testing"
+
+	"github.com/rootshift/rootshift/core/schema"
 )
 
 // twinF fits dep on cols and on cols without drop, returning the F
@@ -673,3 +675,43 @@ func BenchmarkSeasonalQuarterly100(b *testing.B)  { benchSeasonal(b, 4, 100) }
 func BenchmarkSeasonalQuarterly1000(b *testing.B) { benchSeasonal(b, 4, 1000) }
 func BenchmarkSeasonalMonthly100(b *testing.B)    { benchSeasonal(b, 12, 100) }
 func BenchmarkSeasonalMonthly1000(b *testing.B)   { benchSeasonal(b, 12, 1000) }
+
+// TestSeasonalPValueTables: the p-value at a tabulated critical value is
+// its level, p-values move monotonically with the statistic, and critical
+// values at a length between two tables lie between theirs (linear in 1/T).
+func TestSeasonalPValueTables(t *testing.T) {
+	for _, S := range []int{4, 12} {
+		lens := seasGenLengths[S]
+		for _, c := range seasGenCases {
+			for idx := 0; idx < seasNumStats(S); idx++ {
+				tail := "right"
+				if idx < 2 {
+					tail = "left"
+				}
+				T := lens[1]
+				cv := seasCritical(S, c, T, idx, tail)
+				for _, a := range []float64{0.01, 0.05, 0.10} {
+					if p, _ := seasPValue(S, c, T, idx, cv[schema.LevelKey(a)], tail); math.Abs(p-a) > 1e-9 {
+						t.Errorf("S=%d %s stat %d: p at the %g critical value is %g", S, c, idx, a, p)
+					}
+				}
+				prev := -1.0
+				for x := -6.0; x <= 15; x += 0.25 {
+					p, _ := seasPValue(S, c, T, idx, x, tail)
+					if tail == "right" {
+						p = 1 - p
+					}
+					if p < prev-1e-12 {
+						t.Errorf("S=%d %s stat %d: CDF decreases at %g", S, c, idx, x)
+					}
+					prev = p
+				}
+				mid := (lens[0] + lens[1]) / 2
+				lo, hi := seasCritical(S, c, lens[0], idx, tail)["0.05"], seasCritical(S, c, lens[1], idx, tail)["0.05"]
+				if v := seasCritical(S, c, mid, idx, tail)["0.05"]; v < math.Min(lo, hi)-1e-12 || v > math.Max(lo, hi)+1e-12 {
+					t.Errorf("S=%d %s stat %d: 5%% value at T=%d %g outside [%g, %g]", S, c, idx, mid, v, lo, hi)
+				}
+			}
+		}
+	}
+}
