@@ -93,6 +93,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"strconv"
+	"strings"
 
 	"github.com/rootshift/rootshift/core/schema"
 )
@@ -533,6 +534,7 @@ func RunSeasonal(ctx context.Context, y []float64, cfg *Config) (*schema.Result,
 		PValueMethod: seasPValueMethod(S),
 	}
 	Teff := o.NObs + S
+	var beyond []string
 	for _, st := range seasStats(o) {
 		p, bounded := seasPValue(S, c, Teff, st.idx, st.v, st.tail)
 		comp := schema.Component{
@@ -544,15 +546,19 @@ func RunSeasonal(ctx context.Context, y []float64, cfg *Config) (*schema.Result,
 			Reject:         p < level,
 		}
 		if bounded {
-			res.Warnings = append(res.Warnings, fmt.Sprintf("%s: the statistic lies beyond the simulated table, p-value bounded at %g", st.name, p))
+			beyond = append(beyond, st.name)
 		}
 		res.Components = append(res.Components, comp)
 		if st.idx == seasIdxSeas(S) {
+			res.PValueMethod = boundedNote(res.PValueMethod, bounded, p)
 			res.Statistic = schema.F(st.v)
 			res.PValue = schema.F(p)
 			res.CriticalValues = comp.CriticalValues
 			res.Reject = comp.Reject
 		}
+	}
+	if len(beyond) > 0 {
+		res.Warnings = append(res.Warnings, fmt.Sprintf("statistics beyond the simulated table, their p-values are the table's end (%g or %g): %s", seasProbs[0], seasProbs[len(seasProbs)-1], strings.Join(beyond, "; ")))
 	}
 	if Teff < seasTableMinT(S) {
 		res.Warnings = append(res.Warnings, fmt.Sprintf("%d observations are fewer than the shortest simulated table (%d); critical values and p-values are those of the shortest table", Teff, seasTableMinT(S)))
@@ -694,7 +700,8 @@ func seasPValue(S int, c seasCase, T, idx int, v float64, tail string) (p float6
 		}
 	}
 	if tail == "right" {
-		return 1 - cdf, bounded
+		// 1 - cdf, rounded to the grid's precision so that bounds read 0.005.
+		return math.Round((1-cdf)*1e12) / 1e12, bounded
 	}
 	return cdf, bounded
 }
