@@ -116,7 +116,7 @@ func init() {
 			}
 			return func(dst []float64, r *rand.Rand) { SeasonalRandomWalk(dst, S, r) }
 		},
-		NullDGP: "Gaussian seasonal random walk y_t = y_{t-S} + e_t, zero starting values, e_t ~ N(0,1)",
+		NullDGP: "Gaussian seasonal random walk y_t = y_{t-S} + e_t with S the period, zero starting values, e_t ~ N(0,1); statistic: F on all seasonal frequencies",
 	})
 }
 
@@ -574,9 +574,6 @@ func RunSeasonal(ctx context.Context, y []float64, cfg *Config) (*schema.Result,
 	info, _ := Lookup(id)
 	if err := AddSimulated(ctx, info, len(y), cfg, res); err != nil {
 		return nil, dfWrap(id, err)
-	}
-	if res.PValueSim != nil {
-		res.SimMethod = fmt.Sprintf("Monte Carlo under the null (Gaussian seasonal random walk y_t = y_{t-%d} + e_t, T=%d, same settings), statistic: F on all seasonal frequencies, %d replications, seed %d", S, len(y), cfg.Sims, cfg.Seed)
 	}
 	return res, nil
 }

@@ -93,7 +93,7 @@ func (c *DistCache) Apply(ctx context.Context, info core.Info, T int, cfg *core.
 	if err != nil {
 		return err
 	}
-	core.ApplyDistribution(d, T, res)
+	core.ApplySimulated(info, d, T, res)
 	return nil
 }
 
