@@ -3,6 +3,12 @@ package core
 // Seasonal unit-root test (id "seasonal"): HEGY for quarterly data and its
 // monthly extension by Beaulieu & Miron, one regression for both.
 //
+// One id for both periods, dispatching on cfg.Period (4 or 12; the battery
+// sets it from the series' frequency, core.PeriodOf), rather than one id per
+// paper: the regression, the tables, the lag rule and the Result's shape are
+// the same, and a user asking for "seasonal" on a monthly file should not
+// have to know which paper covers monthly data. The Variant names the paper.
+//
 // Hylleberg, S., Engle, R.F., Granger, C.W.J. & Yoo, B.S. (1990), "Seasonal
 // integration and cointegration", J. Econometrics 44, 215-238, section 3,
 // the auxiliary regression (their eq. 3.6 with the deterministic terms of
