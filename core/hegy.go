@@ -210,6 +210,12 @@ type seasWork struct {
 	dep  []float64
 	pair []float64
 	fit  SeasonalFit
+
+	// Cross-product path of the lag choice (seasLagsFast).
+	nm     Normal
+	z      []float64
+	xx, xy []float64
+	noFast bool // tests and benchmarks: use seasLagsQR only
 }
 
 // setPeriod fills the filter weights for period S.
@@ -241,26 +247,26 @@ func (w *seasWork) setPeriod(S int) {
 	w.pair = make([]float64, S/2-1)
 }
 
-// regress fits the regression of Δ_S y_t with k lags on t = start..T (start
-// 0: S+k+1). With full false only the unrestricted fit is made (lag
-// selection) and only SSR, Sigma2 and the t-ratios are set.
-func (w *seasWork) regress(y []float64, S int, c seasCase, k, start int, full bool) (*SeasonalFit, *Fit, error) {
+// design fills w.cols (nc columns: the S filtered regressors, the
+// deterministic terms, k lagged seasonal differences) and w.dep (Δ_S y_t)
+// for t = start..T (start 0: S+k+1) and returns n, nc and Σ dep².
+func (w *seasWork) design(y []float64, S int, c seasCase, k, start int) (n, nc int, tss float64, err error) {
 	w.setPeriod(S)
 	T := len(y)
 	if k < 0 {
-		return nil, nil, fmt.Errorf("%w: negative lag order %d", ErrSettings, k)
+		return 0, 0, 0, fmt.Errorf("%w: negative lag order %d", ErrSettings, k)
 	}
 	if start == 0 {
 		start = S + k + 1
 	}
 	if start < S+k+1 {
-		return nil, nil, fmt.Errorf("%w: sample start %d before first usable observation %d", ErrSettings, start, S+k+1)
+		return 0, 0, 0, fmt.Errorf("%w: sample start %d before first usable observation %d", ErrSettings, start, S+k+1)
 	}
 	nd := c.ndet(S)
-	nc := S + nd + k
-	n := T - start + 1
+	nc = S + nd + k
+	n = T - start + 1
 	if n < nc+4 {
-		return nil, nil, fmt.Errorf("%w: %d observations in the seasonal regression for %d regressors (need %d more)", ErrTooShort, max(n, 0), nc, nc+4-max(n, 0))
+		return 0, 0, 0, fmt.Errorf("%w: %d observations in the seasonal regression for %d regressors (need %d more)", ErrTooShort, max(n, 0), nc, nc+4-max(n, 0))
 	}
 	w.back = grow(w.back, n*nc)
 	if cap(w.cols) < nc {
@@ -272,7 +278,7 @@ func (w *seasWork) regress(y []float64, S int, c seasCase, k, start int, full bo
 		w.cols[j] = w.back[j*n : (j+1)*n]
 	}
 	w.dep = grow(w.dep, n)
-	tss := 0.0
+	tss = 0.0
 	for r := range n {
 		t := start + r // 1-based; y_t is y[t-1]
 		d := y[t-1] - y[t-1-S]
@@ -312,10 +318,24 @@ func (w *seasWork) regress(y []float64, S int, c seasCase, k, start int, full bo
 		}
 	}
 	if math.IsNaN(tss) || math.IsInf(tss, 0) {
-		return nil, nil, fmt.Errorf("%w: in the seasonal differences of the series", ErrNonFinite)
+		return 0, 0, 0, fmt.Errorf("%w: in the seasonal differences of the series", ErrNonFinite)
 	}
 	if tss == 0 {
-		return nil, nil, fmt.Errorf("%w: the seasonal difference is zero throughout (an exactly periodic series)", ErrNoEstimate)
+		return 0, 0, 0, fmt.Errorf("%w: the seasonal difference is zero throughout (an exactly periodic series)", ErrNoEstimate)
+	}
+	return n, nc, tss, nil
+}
+
+// regress fits the regression of Δ_S y_t with k lags on t = start..T (start
+// 0: S+k+1). With full false only the unrestricted fit is made (lag
+// selection) and only SSR, Sigma2 and the t-ratios are set.
+func (w *seasWork) regress(y []float64, S int, c seasCase, k, start int, full bool) (*SeasonalFit, *Fit, error) {
+	n, nc, tss, err := w.design(y, S, c, k, start)
+	if err != nil {
+		return nil, nil, err
+	}
+	if start == 0 {
+		start = S + k + 1
 	}
 	f, err := w.ls.Fit(w.cols, w.dep)
 	if err != nil {
@@ -411,31 +431,149 @@ func (w *seasWork) seasLags(y []float64, S int, c seasCase, cfg *Config) (k int,
 		return 0, rule, 0, fmt.Errorf("%w: max lags %d (want >= 0)", ErrSettings, cfg.MaxLags)
 	}
 	kmax = seasMaxLags(cfg, len(y), S, c)
+	// The QR fit at kmax validates the sample with the errors of the fits.
+	if _, _, err := w.regress(y, S, c, kmax, S+kmax+1, false); err != nil {
+		return 0, rule, kmax, err
+	}
+	if !w.noFast {
+		if k, ok := w.seasLagsFast(y, S, c, rule, kmax); ok {
+			return k, rule, kmax, nil
+		}
+	}
+	k, err = w.seasLagsQR(y, S, c, rule, kmax)
+	return k, rule, kmax, err
+}
+
+// seasLagCrit is the AIC or BIC value of lag order k (smaller is better):
+// log(SSR/N) + C k/N with C = 2 or log N.
+func seasLagCrit(rule LagRule, ssr, N float64, k int) float64 {
+	pen := 2.0
+	if rule == LagBIC {
+		pen = math.Log(N)
+	}
+	return math.Log(ssr/N) + pen*float64(k)/N
+}
+
+// seasLagsQR compares the lag orders 0..kmax on the common sample t =
+// S+kmax+1..T with one Householder QR fit each: the reference the
+// cross-product path seasLagsFast is tested against.
+func (w *seasWork) seasLagsQR(y []float64, S int, c seasCase, rule LagRule, kmax int) (int, error) {
 	start := S + kmax + 1
 	best, bestK := math.Inf(1), 0
 	for kk := 0; kk <= kmax; kk++ {
 		o, f, err := w.regress(y, S, c, kk, start, false)
 		if err != nil {
-			return 0, rule, kmax, err
+			return 0, err
 		}
-		N := float64(o.NObs)
-		switch rule {
-		case LagTSig:
+		if rule == LagTSig {
 			if kk > 0 && math.Abs(f.TStat(o.Regressors-1)) >= 1.645 {
 				bestK = kk
 			}
-		default:
-			pen := 2.0
-			if rule == LagBIC {
-				pen = math.Log(N)
-			}
-			v := math.Log(o.SSR/N) + pen*float64(kk)/N
-			if v < best {
-				best, bestK = v, kk
-			}
+			continue
+		}
+		if v := seasLagCrit(rule, o.SSR, float64(o.NObs), kk); v < best {
+			best, bestK = v, kk
 		}
 	}
-	return bestK, rule, kmax, nil
+	return bestK, nil
+}
+
+// seasLagsFast is the cross-product path of the lag choice: the series is
+// centred (when the regression has a constant: the zero-frequency regressor
+// then moves by S times the mean, absorbed by the constant, and every other
+// regressor, the seasonal differences and the lags are unchanged, their
+// filter weights summing to zero) and scaled (which shifts log SSR by the
+// same amount for every k), the kmax design is built once, X'X and X'Δ_S y
+// formed once, and each order solved from its leading sub-matrix (the lags
+// are the last columns) by core.Normal. ok is false when a factorisation is
+// numerically singular or a fit is nearly exact; the caller then uses
+// seasLagsQR. It does not allocate once the sizes have been seen.
+func (w *seasWork) seasLagsFast(y []float64, S int, c seasCase, rule LagRule, kmax int) (int, bool) {
+	T := len(y)
+	w.z = grow(w.z, T)
+	mean := 0.0
+	if c.trend != TrendNone {
+		for _, v := range y {
+			mean += v
+		}
+		mean /= float64(T)
+	}
+	ss := 0.0
+	for _, v := range y {
+		d := v - mean
+		ss += d * d
+	}
+	sc := math.Sqrt(ss / float64(T))
+	if !(sc > 0) || math.IsInf(sc, 0) {
+		return 0, false
+	}
+	for i, v := range y {
+		w.z[i] = (v - mean) / sc
+	}
+	n, m, _, err := w.design(w.z, S, c, kmax, S+kmax+1)
+	if err != nil {
+		return 0, false
+	}
+	w.xx = grow(w.xx, m*m)
+	w.xy = grow(w.xy, m)
+	for i := 0; i < m; i++ {
+		ci := w.cols[i]
+		for j := 0; j <= i; j++ {
+			cj := w.cols[j]
+			s := 0.0
+			for r, v := range ci {
+				s += v * cj[r]
+			}
+			w.xx[i*m+j] = s
+		}
+		s := 0.0
+		for r, v := range ci {
+			s += v * w.dep[r]
+		}
+		w.xy[i] = s
+	}
+	yy := 0.0
+	for _, v := range w.dep {
+		yy += v * v
+	}
+	base, N := m-kmax, float64(n)
+	best, bestK := math.Inf(1), 0
+	nm := &w.nm
+	for k := 0; k <= kmax; k++ {
+		p := base + k
+		nm.Reset(p)
+		for i := 0; i < p; i++ {
+			nm.B[i] = w.xy[i]
+			for j := 0; j <= i; j++ {
+				nm.A[i*p+j] = w.xx[i*m+j]
+			}
+		}
+		nm.YY, nm.N = yy, n
+		ssr, err := nm.Solve()
+		if err != nil || !(ssr > 1e-10*yy) {
+			return 0, false
+		}
+		if rule == LagTSig {
+			if k > 0 {
+				tv := math.Abs(nm.Coef[p-1] / math.Sqrt(ssr/float64(n-p)*nm.InvDiag(p-1)))
+				if math.IsNaN(tv) {
+					return 0, false
+				}
+				if tv >= 1.645 {
+					bestK = k
+				}
+			}
+			continue
+		}
+		v := seasLagCrit(rule, ssr, N, k)
+		if math.IsNaN(v) {
+			return 0, false
+		}
+		if v < best {
+			best, bestK = v, k
+		}
+	}
+	return bestK, true
 }
 
 // seasFit chooses the lag order and fits the full regression.

@@ -669,9 +669,9 @@ func benchSeasonal(b *testing.B, S, T int) {
 	}
 }
 
-// Benchmarks of the statistic path (lag selection by BIC + full fit with
-// restricted fits). There is no cross-product fast path: every fit is the
-// Householder QR kernel (LS), so there is no brute-force twin to compare.
+// Benchmarks of the statistic path: lag choice by BIC (cross-product fast
+// path, seasLagsFast) and the full fit with its restricted fits (QR). The
+// brute-force twins (suffix QR) choose the lag with one QR fit per order.
 func BenchmarkSeasonalQuarterly100(b *testing.B)  { benchSeasonal(b, 4, 100) }
 func BenchmarkSeasonalQuarterly1000(b *testing.B) { benchSeasonal(b, 4, 1000) }
 func BenchmarkSeasonalMonthly100(b *testing.B)    { benchSeasonal(b, 12, 100) }
@@ -716,3 +716,81 @@ func TestSeasonalPValueTables(t *testing.T) {
 		}
 	}
 }
+
+// TestSeasonalLagsFastTwin: the cross-product lag choice (seasLagsFast)
+// picks the same order as one Householder QR fit per order (seasLagsQR) for
+// AIC, BIC and TSig, every deterministic case, both periods, on seasonal
+// random walks, seasonal means + AR(1), a series far from zero with a trend
+// (where centring matters) and the CO2 record; the fast path must be taken
+// (not fall back) on all of them.
+func TestSeasonalLagsFastTwin(t *testing.T) {
+	r := rand.New(rand.NewPCG(21, 22))
+	co2, _, _ := co2Stretch(t)
+	var fast, qr seasWork
+	qr.noFast = true
+	compared := 0
+	for _, S := range []int{4, 12} {
+		T := 25 * S
+		series := map[string][]float64{}
+		for rep := 0; rep < 4; rep++ {
+			y := make([]float64, T)
+			SeasonalRandomWalk(y, S, r)
+			series[fmt.Sprintf("srw%d", rep)] = y
+			y2 := make([]float64, T)
+			seasonalDummyAR1(y2, S, 0.6, 1, r)
+			series[fmt.Sprintf("dummies%d", rep)] = y2
+			y3 := make([]float64, T)
+			for i := range y3 {
+				y3[i] = 1e6 + 0.3*float64(i) + y2[i]
+			}
+			series[fmt.Sprintf("offset%d", rep)] = y3
+		}
+		if S == 12 {
+			series["co2"] = co2
+		}
+		for name, y := range series {
+			for _, c := range seasGenCases {
+				for _, rule := range []LagRule{LagAIC, LagBIC, LagTSig} {
+					kmax := seasMaxLags(&Config{}, len(y), S, c)
+					if _, _, err := qr.regress(y, S, c, kmax, S+kmax+1, false); err != nil {
+						t.Fatalf("%s S=%d %s: %v", name, S, c, err)
+					}
+					kq, err := qr.seasLagsQR(y, S, c, rule, kmax)
+					if err != nil {
+						t.Fatal(err)
+					}
+					kf, ok := fast.seasLagsFast(y, S, c, rule, kmax)
+					if !ok {
+						t.Errorf("%s S=%d %s %v: fast path fell back", name, S, c, rule)
+						continue
+					}
+					compared++
+					if kf != kq {
+						t.Errorf("%s S=%d %s %v: fast k=%d, QR k=%d (kmax %d)", name, S, c, rule, kf, kq, kmax)
+					}
+				}
+			}
+		}
+	}
+	t.Logf("%d lag choices compared", compared)
+}
+
+func benchSeasonalTwin(b *testing.B, S, T int, noFast bool) {
+	y := make([]float64, T)
+	SeasonalRandomWalk(y, S, rand.New(rand.NewPCG(1, 1)))
+	cfg := &Config{Period: S}
+	w := seasWork{noFast: noFast}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, _, _, _, err := w.seasFit(y, cfg); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// Brute-force twins of the benchmarks above: the lag choice by one QR fit
+// per order (seasLagsQR) instead of the cross-product path.
+func BenchmarkSeasonalQuarterly100QR(b *testing.B)  { benchSeasonalTwin(b, 4, 100, true) }
+func BenchmarkSeasonalQuarterly1000QR(b *testing.B) { benchSeasonalTwin(b, 4, 1000, true) }
+func BenchmarkSeasonalMonthly100QR(b *testing.B)    { benchSeasonalTwin(b, 12, 100, true) }
+func BenchmarkSeasonalMonthly1000QR(b *testing.B)   { benchSeasonalTwin(b, 12, 1000, true) }

@@ -181,13 +181,15 @@ func (rep *SeasonalityReport) dummyTest(y []float64, cfg *Config) error {
 	}
 	var w dummyWork
 	best, p := math.Inf(1), 0
-	for k := 0; k <= pmax; k++ {
+	// From the largest design down, so its storage serves the smaller ones;
+	// "<=" keeps the smallest order on a tie.
+	for k := pmax; k >= 0; k-- {
 		ssr, n, err := w.fit(z, off, S, trend, k, pmax, true)
 		if err != nil {
 			return err
 		}
 		N := float64(n)
-		if v := math.Log(ssr/N) + math.Log(N)*float64(k)/N; v < best {
+		if v := math.Log(ssr/N) + math.Log(N)*float64(k)/N; v <= best {
 			best, p = v, k
 		}
 	}
