@@ -75,7 +75,9 @@ package core
 // sample t = S+kmax+1..T; kmax is cfg.MaxLags or Schwert's (1989) rule
 // floor(12 (T/100)^{1/4}), lowered until the kmax regression keeps 10
 // degrees of freedom. MAIC is refused (it is defined for the Dickey-Fuller
-// regression). The chosen k is refitted on t = S+k+1..T.
+// regression). The chosen k is refitted on t = S+k+1..T. The comparison
+// uses cross-products (seasLagsFast, core.Normal) and falls back to one QR
+// fit per order (seasLagsQR) when they are numerically singular.
 //
 // # Inference
 //
