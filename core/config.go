@@ -251,6 +251,15 @@ type Config struct {
 	Workers int
 	// RightTail makes adf test against an explosive root.
 	RightTail bool
+	// Period is the number of observations per year for the seasonal
+	// unit-root test (id "seasonal"): 4 (quarterly, HEGY 1990) or 12
+	// (monthly, Beaulieu & Miron 1993). 0 means unknown; the seasonal test
+	// then fails with ErrSettings (other tests ignore it). The battery sets
+	// it from the frequency of the dates.
+	Period int
+	// NoSeasonalDummies drops the S-1 seasonal dummies from the seasonal
+	// unit-root regression (the zero value keeps them beside the constant).
+	NoSeasonalDummies bool
 	// MinWindow is the sadf/gsadf minimum window fraction; 0: 0.01 + 1.8/sqrt(T).
 	MinWindow float64
 	// MaxBreaks bounds bp; 0 means 5.

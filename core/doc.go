@@ -2,9 +2,11 @@
 // every test, deterministic terms, augmentation-lag selection, long-run
 // variance estimation, the standard unit-root and stationarity tests (ADF,
 // Phillips-Perron, KPSS, DF-GLS, ERS point-optimal, Ng-Perron M-tests), the
-// right-tailed explosive-root tests, inference from published response
-// surfaces, and the Monte Carlo engine that gives finite-sample p-values to
-// every test, the break-aware ones in package breaks included.
+// right-tailed explosive-root tests, the seasonal unit-root test (HEGY
+// quarterly, Beaulieu-Miron monthly) and the Seasonality diagnosis,
+// inference from published response surfaces, and the Monte Carlo engine
+// that gives finite-sample p-values to every test, the break-aware ones in
+// package breaks included.
 //
 // # Conventions
 //
@@ -37,4 +39,7 @@
 // MacKinnon, J.G. (2010), Queen's Economics Department WP 1227.
 // Phillips, P.C.B., Wu, Y. & Yu, J. (2011), Int. Econ. Review 52, 201-226.
 // Phillips, P.C.B., Shi, S. & Yu, J. (2015), Int. Econ. Review 56, 1043-1078.
+// Hylleberg, S., Engle, R.F., Granger, C.W.J. & Yoo, B.S. (1990), J. Econometrics 44, 215-238.
+// Beaulieu, J.J. & Miron, J.A. (1993), J. Econometrics 55, 305-328.
+// Ghysels, E., Lee, H.S. & Noh, J. (1994), J. Econometrics 62, 415-442.
 package core

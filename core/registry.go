@@ -38,6 +38,11 @@ type Info struct {
 	// Null DGP for simulation; nil: a driftless Gaussian random walk
 	// y_t = y_{t-1} + e_t, y_0 = 0, e_t ~ N(0,1).
 	Generate func(dst []float64, r *rand.Rand)
+	// GenerateFor, when set, is used instead of Generate: the null DGP for
+	// series of length T under cfg (the seasonal test's null depends on
+	// cfg.Period). NullDGP describes it in words for simulation notes.
+	GenerateFor func(T int, cfg *Config) func(dst []float64, r *rand.Rand)
+	NullDGP     string
 }
 
 var (

@@ -111,9 +111,13 @@ func Simulate(ctx context.Context, spec SimSpec, newRep func() func(r *rand.Rand
 }
 
 // SimulateTest simulates the null distribution of a registered test at
-// length T under cfg. The null DGP is info.Generate (default RandomWalk).
+// length T under cfg. The null DGP is info.GenerateFor(T, cfg) when set,
+// else info.Generate (default RandomWalk).
 func SimulateTest(ctx context.Context, info Info, T int, cfg *Config, spec SimSpec) (*Distribution, error) {
 	gen := info.Generate
+	if info.GenerateFor != nil {
+		gen = info.GenerateFor(T, cfg)
+	}
 	if gen == nil {
 		gen = RandomWalk
 	}
@@ -215,16 +219,31 @@ func AddSimulated(ctx context.Context, info Info, T int, cfg *Config, res *schem
 	if err != nil {
 		return err
 	}
-	ApplyDistribution(d, T, res)
+	ApplySimulated(info, d, T, res)
 	return nil
 }
 
-// ApplyDistribution fills the simulated fields of res from d.
+// ApplyDistribution fills the simulated fields of res from d, a simulation
+// under the default null (Gaussian random walk).
 func ApplyDistribution(d *Distribution, T int, res *schema.Result) {
+	applyDistribution(d, T, res, "Gaussian random walk")
+}
+
+// ApplySimulated is ApplyDistribution for a distribution simulated under
+// info's null: the method text names info.NullDGP when the test declares one.
+func ApplySimulated(info Info, d *Distribution, T int, res *schema.Result) {
+	dgp := "Gaussian random walk"
+	if info.NullDGP != "" {
+		dgp = info.NullDGP
+	}
+	applyDistribution(d, T, res, dgp)
+}
+
+func applyDistribution(d *Distribution, T int, res *schema.Result, dgp string) {
 	p := d.PValue(*res.Statistic, res.Tail)
 	res.PValueSim = &p
 	res.CriticalValuesSim = d.Critical(res.Tail)
-	res.SimMethod = fmt.Sprintf("Monte Carlo under the null (Gaussian random walk, T=%d, same settings), %d replications, seed %d", T, d.Reps, d.Seed)
+	res.SimMethod = fmt.Sprintf("Monte Carlo under the null (%s, T=%d, same settings), %d replications, seed %d", dgp, T, d.Reps, d.Seed)
 	if d.Failed > 0 {
 		res.SimMethod += fmt.Sprintf(", %d failed replications dropped", d.Failed)
 	}

@@ -292,6 +292,7 @@ func (r *runner) runWith(id string, trend core.Trend, y []float64, mod func(*cor
 	cfg.Trend = trend
 	cfg.BreakIndex = r.breakIndex
 	cfg.Workers = r.opt.Workers
+	cfg.Period = core.PeriodOf(r.freq) // the seasonal test's S; 0 when not quarterly or monthly
 	if mod != nil {
 		mod(cfg)
 	}

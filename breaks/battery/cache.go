@@ -51,12 +51,15 @@ type cacheKey struct {
 	MaxBreaks     int     `json:"max_breaks"`
 	Sims          int     `json:"sims"`
 	Seed          uint64  `json:"seed"`
+	// Period and NoSeasonalDummies change the seasonal test's null.
+	Period            int  `json:"period"`
+	NoSeasonalDummies bool `json:"no_seasonal_dummies"`
 }
 
 func keyOf(id string, T int, c *core.Config) string {
 	k := cacheKey{id, T, c.Trend.String(), c.LagRule.String(), c.Lags, c.MaxLags, c.Kernel.String(),
 		c.BandwidthRule.String(), c.Bandwidth, c.Shift.String(), c.TrimOr(), c.BreakIndex, c.RightTail,
-		c.MinWindow, c.MaxBreaks, c.Sims, c.Seed}
+		c.MinWindow, c.MaxBreaks, c.Sims, c.Seed, c.Period, c.NoSeasonalDummies}
 	b, _ := json.Marshal(k)
 	return string(b)
 }
@@ -90,7 +93,7 @@ func (c *DistCache) Apply(ctx context.Context, info core.Info, T int, cfg *core.
 	if err != nil {
 		return err
 	}
-	core.ApplyDistribution(d, T, res)
+	core.ApplySimulated(info, d, T, res)
 	return nil
 }
 

@@ -16,8 +16,10 @@
 //   - Decisions are put in words from Result.Reject and the kind of null
 //     hypothesis: "rejects unit root", "cannot reject unit root", "rejects
 //     stationarity", "cannot reject stationarity", "finds a break",
-//     "no break found", and for right-tailed unit-root tests "rejects unit
-//     root (explosive)".
+//     "no break found", for right-tailed unit-root tests "rejects unit
+//     root (explosive)", and for the seasonal test "rejects seasonal unit
+//     roots" / "cannot reject seasonal unit roots" (its components, one per
+//     frequency, read "rejects unit root" / "cannot reject unit root").
 //   - A p-value that is only a bound (the statistic lies beyond the table the
 //     test reads it from, as the test says in p_value_method or a warning)
 //     prints as "<0.001", ">0.999" or "<0.005" in the table, Markdown, HTML

@@ -135,6 +135,7 @@ const (
 	nullStationary
 	nullNoBreak
 	nullExplosive // unit root against an explosive (right-tailed) alternative
+	nullSeasonal  // unit roots at the seasonal frequencies (right-tailed F, not explosive)
 )
 
 // kindOf classifies r by its test id, its stated null and its tail.
@@ -143,6 +144,8 @@ func kindOf(r *schema.Result) nullKind {
 	null := strings.ToLower(r.Null)
 	right := id == "sadf" || id == "gsadf" || r.Tail == "right"
 	switch {
+	case id == "seasonal":
+		return nullSeasonal
 	case strings.Contains(id, "kpss"):
 		return nullStationary
 	case id == "bp" || id == "py":
@@ -181,6 +184,11 @@ func decision(k nullKind, reject bool) string {
 			return "rejects unit root (explosive)"
 		}
 		return "cannot reject unit root"
+	case nullSeasonal:
+		if reject {
+			return "rejects seasonal unit roots"
+		}
+		return "cannot reject seasonal unit roots"
 	}
 	if reject {
 		return "rejects unit root"
@@ -206,6 +214,10 @@ func componentDecision(r *schema.Result, c *schema.Component) string {
 		return "no statistic"
 	}
 	k := kindOf(r)
+	if k == nullSeasonal {
+		// Each component tests the unit root(s) at its own frequency.
+		return decision(nullUnitRoot, c.Reject)
+	}
 	if c.Tail != "" && k != nullStationary && k != nullNoBreak {
 		if c.Tail == "right" {
 			k = nullExplosive

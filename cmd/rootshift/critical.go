@@ -194,6 +194,9 @@ func (e *env) critical(args []string) int {
 }
 
 func nullDGP(info core.Info) string {
+	if info.NullDGP != "" {
+		return info.NullDGP
+	}
 	if info.Generate == nil {
 		return "Gaussian random walk y_t = y_{t-1} + e_t, y_0 = 0, e_t ~ N(0,1)"
 	}
