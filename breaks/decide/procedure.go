@@ -173,6 +173,13 @@ func (w *work) finish(ctx context.Context, v *schema.Verdict, win *window) (*Out
 	if w.in.lean {
 		return &Outcome{Verdict: v}, nil
 	}
+	if v.Class != ClassExplosive && v.Class != ClassInconclusive {
+		s, err := w.seasonality(ctx)
+		if err != nil {
+			return nil, err
+		}
+		w.applySeasonality(v, s)
+	}
 	if err := w.context(ctx, v); err != nil {
 		return nil, err
 	}

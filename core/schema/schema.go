@@ -195,7 +195,8 @@ type Verdict struct {
 	Order *int `json:"order"`
 	// Drift reports a unit root with drift.
 	Drift bool `json:"drift,omitempty"`
-	// Transform recommended: none, detrend, shift-dummies, difference, log-difference.
+	// Transform recommended: none, detrend, shift-dummies, difference,
+	// log-difference, second-difference, seasonal-difference.
 	Transform string  `json:"transform"`
 	Breaks    []Break `json:"breaks"`
 	// Window reports the suspected window and whether breaks fall inside it.
