@@ -20,6 +20,8 @@ type LongOptions struct {
 	ID, Date, Value string
 	// Delimiter is the field delimiter; 0 detects it from the first 64 KiB.
 	Delimiter rune
+	// DateFormat is as in Options.
+	DateFormat string
 	// Name is the file name used in errors.
 	Name string
 }
@@ -41,6 +43,7 @@ type LongReader struct {
 	pending *record
 	seen    map[string]bool
 	err     error
+	dopt    dateOpts
 }
 
 // NewLongReader reads the header of a long file.
@@ -58,7 +61,11 @@ func NewLongReader(r io.Reader, opt LongOptions) (*LongReader, error) {
 	} else {
 		delim = detectDelimiter(lines)
 	}
-	lr := &LongReader{rr: newRecordReader(br, delim), name: opt.Name, seen: map[string]bool{}, dt: -1}
+	dopt, err := parseDateFormat(opt.DateFormat, -1)
+	if err != nil {
+		return nil, &ParseError{File: opt.Name, Err: err}
+	}
+	lr := &LongReader{rr: newRecordReader(br, delim), name: opt.Name, seen: map[string]bool{}, dt: -1, dopt: dopt}
 	if delim != ',' {
 		recs := make([]record, len(lines))
 		for i, l := range lines {
@@ -183,20 +190,19 @@ func (lr *LongReader) Next() (*Table, error) {
 		r = next
 	}
 	if bad != nil {
+		bad.ID = id
 		return nil, bad
 	}
 	t := &Table{Name: id, Rows: len(vals), Delimiter: rune(lr.rr.delim), DecimalComma: lr.dec == decComma}
 	if lr.dt >= 0 {
-		dc, e := parseDates(dates)
+		dc, e := parseDates(dates, lr.dopt)
 		if e != nil {
-			return nil, &ParseError{File: lr.name, Row: lines[e.i], Column: lr.dt + 1, ColumnName: lr.names[lr.dt], Value: dates[e.i], Err: e.err}
+			return nil, &ParseError{File: lr.name, Row: lines[e.i], Column: lr.dt + 1, ColumnName: lr.names[lr.dt], Value: dates[e.i], ID: id, Err: e.err}
 		}
 		t.DateColumn, t.Dates, t.Frequency = lr.names[lr.dt], dc.labels, dc.freq
-		if dc.warn != "" {
-			t.Warnings = append(t.Warnings, dc.warn)
-		}
+		t.dateNotes(dc, lr.dt+1, lr.names[lr.dt], lines)
 	}
-	t.Series = []Series{{Name: id, Column: lr.val + 1, Values: vals, Dates: t.Dates, Frequency: t.Frequency, First: 1}}
+	t.Series = []Series{{Name: id, Column: lr.val + 1, Values: vals, Dates: t.Dates, Frequency: t.Frequency, First: 1, Notes: t.Notes}}
 	return t, nil
 }
 
@@ -218,6 +224,8 @@ type JSONLReader struct {
 	err  error
 	// Name is the file name used in errors.
 	Name string
+	// DateFormat is as in Options.
+	DateFormat string
 }
 
 // NewJSONLReader returns a reader of JSON Lines.
@@ -305,18 +313,20 @@ func (jr *JSONLReader) Next() (*Table, error) {
 		if len(rec.Dates) != len(vals) {
 			return nil, perr(0, "dates", wrapf(ErrBadDate, "%d dates for %d values", len(rec.Dates), len(vals)))
 		}
-		dc, e := parseDates(rec.Dates)
+		o, err := parseDateFormat(jr.DateFormat, -1)
+		if err != nil {
+			return nil, perr(0, "dates", err)
+		}
+		dc, e := parseDates(rec.Dates, o)
 		if e != nil {
 			pe := perr(e.i+1, "dates", e.err)
 			pe.Value = rec.Dates[e.i]
 			return nil, pe
 		}
 		t.DateColumn, t.Dates, t.Frequency = "dates", dc.labels, dc.freq
-		if dc.warn != "" {
-			t.Warnings = append(t.Warnings, dc.warn)
-		}
+		t.dateNotes(dc, 0, "dates", nil)
 	}
-	t.Series = []Series{{Name: id, Column: 1, Values: vals, Dates: t.Dates, Frequency: t.Frequency, First: 1}}
+	t.Series = []Series{{Name: id, Column: 1, Values: vals, Dates: t.Dates, Frequency: t.Frequency, First: 1, Notes: t.Notes}}
 	return t, nil
 }
 

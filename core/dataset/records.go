@@ -23,6 +23,8 @@ type recordReader struct {
 	pos   int
 	err   error // sticky read error (io.EOF at end)
 	bom   bool  // BOM check done
+	// keepBlank makes next return blank lines as records with nil fields.
+	keepBlank bool
 }
 
 func newRecordReader(r io.Reader, delim byte) *recordReader {
@@ -114,7 +116,36 @@ func (r *recordReader) readLine() (string, bool, error) {
 	}
 }
 
-// next returns the next non-blank record, or io.EOF.
+// quoteState follows the quoting of splitFields across one line: a quote
+// opens a quoted field only at the start of a field (after spaces), "" inside
+// quotes is a quote, and a quote elsewhere is an ordinary character. It
+// returns whether a quoted field is still open at the end of the line.
+func quoteState(s string, delim byte, inQ bool) bool {
+	start := !inQ
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch {
+		case inQ && c == '"' && i+1 < len(s) && s[i+1] == '"':
+			i++
+		case inQ && c == '"':
+			inQ = false
+		case inQ:
+		case c == delim:
+			start = true
+		case c == '"' && start:
+			inQ, start = true, false
+		case c == ' ' || c == '\t':
+		default:
+			start = false
+		}
+	}
+	return inQ
+}
+
+// next returns the next non-blank record (or, with keepBlank, a blank
+// record with nil fields), or io.EOF. A quoted field that is still open at
+// the end of the input is a *ParseError wrapping ErrQuote naming the line
+// where the record began.
 func (r *recordReader) next() (record, error) {
 	for {
 		s, ok, err := r.readLine()
@@ -125,19 +156,29 @@ func (r *recordReader) next() (record, error) {
 			return record{}, io.EOF
 		}
 		start := r.line
-		if strings.IndexByte(s, '"') >= 0 {
-			for strings.Count(s, `"`)%2 == 1 {
+		if strings.IndexByte(s, '"') >= 0 && quoteState(s, r.delim, false) {
+			var b strings.Builder
+			b.WriteString(s)
+			inQ := true
+			for inQ {
 				more, ok, err := r.readLine()
 				if err != nil {
 					return record{}, err
 				}
 				if !ok {
-					break
+					return record{}, &ParseError{Row: start, Err: wrapf(ErrQuote,
+						"a quoted cell opened on line %d is never closed (the rest of the file would be one cell); remove the stray quote or double it", start)}
 				}
-				s += "\n" + more
+				b.WriteByte('\n')
+				b.WriteString(more)
+				inQ = quoteState(more, r.delim, true)
 			}
+			s = b.String()
 		}
 		if trimSpace(s) == "" {
+			if r.keepBlank {
+				return record{line: start}, nil
+			}
 			continue
 		}
 		return record{line: start, fields: splitFields(s, r.delim)}, nil

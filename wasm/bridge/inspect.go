@@ -12,15 +12,16 @@ import (
 // data, before any test runs, and what the current input settings (columns,
 // sample range, transform) select from it.
 type Preview struct {
-	Name         string   `json:"name"`
-	Rows         int      `json:"rows"`
-	DateColumn   string   `json:"date_column"`
-	Frequency    string   `json:"frequency"`
-	FirstDate    string   `json:"first_date,omitempty"`
-	LastDate     string   `json:"last_date,omitempty"`
-	Delimiter    string   `json:"delimiter,omitempty"`
-	DecimalComma bool     `json:"decimal_comma"`
-	Warnings     []string `json:"warnings"`
+	Name         string `json:"name"`
+	Rows         int    `json:"rows"`
+	DateColumn   string `json:"date_column"`
+	Frequency    string `json:"frequency"`
+	FirstDate    string `json:"first_date,omitempty"`
+	LastDate     string `json:"last_date,omitempty"`
+	Delimiter    string `json:"delimiter,omitempty"`
+	DecimalComma bool   `json:"decimal_comma"`
+	// Warnings are the reader's notes (dataset.Table.Notes), one line each.
+	Warnings []string `json:"warnings"`
 	// Series describes every numeric column as read.
 	Series []ColumnPreview `json:"series"`
 	// Selected describes what the analysis would use under the settings.
@@ -71,7 +72,7 @@ func Inspect(name string, data []byte, settings string) string {
 
 // readTable reads data the way battery.AnalyzeText does.
 func readTable(name string, data []byte, s schema.Settings) (*dataset.Table, error) {
-	opt := &dataset.Options{DateColumn: s.DateColumn}
+	opt := dataset.OptionsFor(s)
 	if strings.HasSuffix(strings.ToLower(name), ".xlsx") {
 		return dataset.ReadXLSX(name, data, opt)
 	}
@@ -80,7 +81,7 @@ func readTable(name string, data []byte, s schema.Settings) (*dataset.Table, err
 
 func preview(t *dataset.Table, s schema.Settings) *Preview {
 	p := &Preview{Name: t.Name, Rows: t.Rows, DateColumn: t.DateColumn, Frequency: t.Frequency,
-		DecimalComma: t.DecimalComma, Warnings: append([]string{}, t.Warnings...),
+		DecimalComma: t.DecimalComma, Warnings: append([]string{}, t.Messages()...),
 		Series: []ColumnPreview{}, Selected: []SelectedPreview{}}
 	switch t.Delimiter {
 	case 0:
