@@ -79,6 +79,7 @@ func WriteHTML(w io.Writer, doc *schema.Document, inputs []dataset.Series) error
 		meta += ". "
 	}
 	e.print("<p class=\"settings\">" + esc(meta+"Settings: "+strings.Join(settingsNotes(&doc.Settings), "; ")+".") + "</p>\n")
+	htmlList(e, "Notes on the input", "notes", inputNotes(doc))
 	if len(doc.Series) > 1 {
 		e.print("<ul class=\"toc\">\n")
 		for i := range doc.Series {

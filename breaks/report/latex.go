@@ -59,6 +59,9 @@ func WriteLaTeX(w io.Writer, doc *schema.Document) error {
 	e.print("\\hline\n")
 	notes := "Notes: " + texEscape(strings.Join(settingsNotes(&doc.Settings), "; ")) +
 		". Stars: * $p<0.10$, ** $p<0.05$, *** $p<0.01$ (simulated $p$-value or critical values when there is no asymptotic one)."
+	if in := inputNotes(doc); len(in) > 0 {
+		notes += " Input: " + texEscape(strings.Join(in, "; ")) + "."
+	}
 	t.span(texWide, "\\footnotesize "+notes)
 	e.print("\\end{tabular}\n\\end{table}\n")
 	return e.err
