@@ -771,6 +771,9 @@ func describeGaps(gs []gap, freq string) string {
 	if len(gs) > 10 {
 		fmt.Fprintf(&b, " and %d more gaps", len(gs)-10)
 	}
+	if total == 1 {
+		unit = strings.TrimSuffix(unit, "s")
+	}
 	fmt.Fprintf(&b, " (%d missing %s in %d gap", total, unit, len(gs))
 	if len(gs) > 1 {
 		b.WriteString("s")
