@@ -41,7 +41,7 @@ func TestNotes(t *testing.T) {
 		kind   string
 		text   string
 	}{
-		{"blank row, one column", "y\n1\n\n3\n4\n", nil, "y", 4, "blank-row", "lines 3"},
+		{"blank row, one column", "y\n1\n\n3\n4\n", nil, "y", 4, "blank-row", "a blank row (line 3) read as missing"},
 		{"blank row with dates", "date,y\n2000-01,1\n\n2000-02,2\n", nil, "y", 2, "blank-row", "the dates show"},
 		{"repeated names keep every column", "date,x,x,x_2\n2000,1,2,3\n2001,4,5,6\n", nil, "x|x_3|x_2", 2, "renamed", `"x_3"`},
 		{"empty header cell", "date,,y\n2000,1,2\n2001,3,4\n", nil, "column2|y", 2, "renamed", "column2"},

@@ -248,6 +248,10 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 		rows = append(rows, r)
 	}
 	t := &Table{Name: name, DecimalComma: dec == decComma}
+	if len(head.title) > 0 {
+		t.Notes = append(t.Notes, Note{Kind: "header-row", Row: head.line,
+			Message: fmt.Sprintf("the header is row %d; the title rows above it were skipped (%q)", head.line, strings.Join(head.title, " / "))})
+	}
 	ncol := len(head.fields)
 	// Names: empty headers become columnN, repeated ones get the first free
 	// suffix _2, _3 ... that no other header uses.
@@ -453,13 +457,20 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 		for _, b := range blanks[:min(len(blanks), 10)] {
 			lines = append(lines, fmt.Sprint(b.line))
 		}
-		list := strings.Join(lines, ", ")
+		list := "line " + strings.Join(lines, ", ")
+		if len(blanks) > 1 {
+			list = "lines " + strings.Join(lines, ", ")
+		}
 		if len(blanks) > 10 {
 			list += fmt.Sprintf(" and %d more", len(blanks)-10)
 		}
+		what := "a blank row"
+		if len(blanks) > 1 {
+			what = fmt.Sprintf("%d blank rows", len(blanks))
+		}
 		if dc != nil {
 			t.Notes = append(t.Notes, Note{Kind: "blank-row", Row: blanks[0].line,
-				Message: fmt.Sprintf("blank rows (lines %s) left out: the dates show which periods are missing", list)})
+				Message: fmt.Sprintf("%s (%s) left out: the dates show which periods are missing", what, list)})
 		} else {
 			full := make([]record, 0, len(rows)+len(blanks))
 			k := 0
@@ -474,7 +485,7 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 			}
 			rows = full
 			t.Notes = append(t.Notes, Note{Kind: "blank-row", Row: blanks[0].line,
-				Message: fmt.Sprintf("blank rows (lines %s) read as missing observations", list)})
+				Message: fmt.Sprintf("%s (%s) read as missing observations", what, list)})
 		}
 	}
 	t.Rows = len(rows)

@@ -10,6 +10,7 @@ import (
 type record struct {
 	line   int
 	fields []string
+	title  []string // title rows skipped above this header row (workbooks)
 }
 
 // recordReader splits delimited text into records, accepting LF, CRLF and CR
