@@ -41,9 +41,10 @@ type Note struct {
 //	header-row      rows above the header row were skipped (workbooks)
 //	sheet-ignored   another sheet of the workbook holds data that was not read
 //	encoding        the file was converted from another encoding
+//	sorted          rows of a long file were grouped by id or sorted by date
 var NoteKinds = []string{"decimal-mark", "thousands", "renamed", "short-row", "blank-row", "skipped-column",
 	"empty-column", "index-column", "not-years", "date-format", "date-period", "irregular", "gap", "gap-kept",
-	"gap-split", "trimmed", "header-row", "sheet-ignored", "encoding"}
+	"gap-split", "trimmed", "header-row", "sheet-ignored", "encoding", "sorted"}
 
 // String formats a note for a report line: "line 4, column 2 ("x"): message".
 func (n Note) String() string {
