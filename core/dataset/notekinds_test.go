@@ -12,16 +12,20 @@ import (
 
 func TestNoteKindsMatchSchema(t *testing.T) {
 	var js struct {
-		Defs map[string]struct {
-			Properties map[string]struct {
-				Enum []string `json:"enum"`
-			} `json:"properties"`
-		} `json:"$defs"`
+		Defs map[string]json.RawMessage `json:"$defs"`
+	}
+	var note struct {
+		Properties map[string]struct {
+			Enum []string `json:"enum"`
+		} `json:"properties"`
 	}
 	if err := json.Unmarshal(schema.SchemaJSON, &js); err != nil {
 		t.Fatal(err)
 	}
-	if got := js.Defs["note"].Properties["kind"].Enum; !slices.Equal(got, NoteKinds) {
+	if err := json.Unmarshal(js.Defs["note"], &note); err != nil {
+		t.Fatal(err)
+	}
+	if got := note.Properties["kind"].Enum; !slices.Equal(got, NoteKinds) {
 		t.Errorf("schema kinds %v, dataset %v", got, NoteKinds)
 	}
 }
