@@ -33,6 +33,9 @@ type Table struct {
 	// Lines is the 1-based file line (sheet row) of each data row; nil for
 	// the streaming readers.
 	Lines []int
+	// Header holds the column names as read (after renaming), one per
+	// column of the file; nil for the streaming readers.
+	Header []string
 }
 
 // Series is one numeric column.
@@ -489,6 +492,7 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 		}
 	}
 	t.Rows = len(rows)
+	t.Header = names
 	t.Lines = make([]int, len(rows))
 	for i, r := range rows {
 		t.Lines[i] = r.line
