@@ -114,7 +114,7 @@ func Parse(name string, data []byte, opt *Options) (*Table, error) {
 	if delim != ',' {
 		dec, warn = detectDecimal(recs, delim)
 	}
-	t, err := build(name, recs, opt, dec, false)
+	t, err := build(name, skipTitleRows(recs), opt, dec, false)
 	if err != nil {
 		return nil, err
 	}

@@ -225,6 +225,50 @@ func splitFields(s string, delim byte) []string {
 	return append(out, b.String())
 }
 
+// headerLike reports whether a record has a cell that is text (not a
+// number, a date or a missing marker).
+func headerLike(fields []string) bool {
+	for _, f := range fields {
+		f = trimSpace(f)
+		if IsMissing(f) {
+			continue
+		}
+		if _, ok := parseNumber(f, decPoint); ok {
+			continue
+		}
+		if _, ok := parseNumber(f, decComma); ok {
+			continue
+		}
+		if _, ok := parseDate(f); ok {
+			continue
+		}
+		return true
+	}
+	return false
+}
+
+// consistentDelimiter is the first candidate whose count is the same
+// non-zero number on every line.
+func consistentDelimiter(lines []string, cands []byte) (byte, bool) {
+	for _, c := range cands {
+		h := countOutside(lines[0], c)
+		if h == 0 {
+			continue
+		}
+		same := true
+		for _, l := range lines[1:] {
+			if countOutside(l, c) != h {
+				same = false
+				break
+			}
+		}
+		if same {
+			return c, true
+		}
+	}
+	return 0, false
+}
+
 // countOutside counts delim outside double quotes in one line.
 func countOutside(line string, delim byte) int {
 	n, inQ := 0, false
@@ -280,21 +324,22 @@ func detectDelimiter(lines []string) byte {
 	if len(lines) == 0 {
 		return '\t'
 	}
-	for _, c := range cands {
-		h := countOutside(lines[0], c)
-		if h == 0 {
-			continue
+	// Title lines above the header (no delimiter at all, while the lines
+	// below agree on one) are passed over.
+	for k := 1; k <= 3 && k+2 <= len(lines); k++ {
+		none := true
+		for _, c := range cands {
+			none = none && countOutside(lines[k-1], c) == 0
 		}
-		same := true
-		for _, l := range lines[1:] {
-			if countOutside(l, c) != h {
-				same = false
-				break
-			}
+		if !none {
+			break
 		}
-		if same {
-			return c
+		if d, ok := consistentDelimiter(lines[k:], cands); ok && headerLike(splitFields(lines[k], d)) {
+			return d
 		}
+	}
+	if d, ok := consistentDelimiter(lines, cands); ok {
+		return d
 	}
 	// A single column: no delimiter splits it, and a tab keeps decimal commas
 	// inside the cell for decimal-mark detection.

@@ -181,9 +181,10 @@ func sheetRecords(x *xlsxreader.XlsxFile, name, sheet string) ([]record, int, er
 	return recs, n, rowErr
 }
 
-// skipTitleRows drops title rows above the header: leading rows with a
-// single filled cell followed by a row with several. The header row's
-// record then carries a note through headerNote.
+// skipTitleRows drops title rows above the header: leading rows whose only
+// filled cell is the first, holding text (not a number or a date), followed
+// by a row with several filled cells. The header record then lists the
+// titles, and build notes them.
 func skipTitleRows(recs []record) []record {
 	filled := func(r record) int {
 		n := 0
@@ -193,6 +194,18 @@ func skipTitleRows(recs []record) []record {
 			}
 		}
 		return n
+	}
+	title := func(r record) bool {
+		if filled(r) != 1 || len(r.fields) == 0 {
+			return false
+		}
+		f := trimSpace(r.fields[0])
+		if f == "" {
+			return false
+		}
+		_, num := parseNumber(f, decPoint)
+		_, date := parseDate(f)
+		return !num && !date
 	}
 	i := 0
 	var titles []string
@@ -204,14 +217,10 @@ func skipTitleRows(recs []record) []record {
 		for j < len(recs) && recs[j].fields == nil {
 			j++
 		}
-		if i >= len(recs) || j >= len(recs) || filled(recs[i]) != 1 || filled(recs[j]) < 2 {
+		if i >= len(recs) || j >= len(recs) || !title(recs[i]) || filled(recs[j]) < 2 {
 			break
 		}
-		for _, f := range recs[i].fields {
-			if trimSpace(f) != "" {
-				titles = append(titles, trimSpace(f))
-			}
-		}
+		titles = append(titles, trimSpace(recs[i].fields[0]))
 		i = j
 	}
 	if len(titles) == 0 {
