@@ -42,9 +42,10 @@ type Note struct {
 //	sheet-ignored   another sheet of the workbook holds data that was not read
 //	encoding        the file was converted from another encoding
 //	sorted          rows of a long file were grouped by id or sorted by date
+//	formula         workbook cells with a formula but no saved value, read as empty
 var NoteKinds = []string{"decimal-mark", "thousands", "renamed", "short-row", "blank-row", "skipped-column",
 	"empty-column", "index-column", "not-years", "date-format", "date-period", "irregular", "gap", "gap-kept",
-	"gap-split", "trimmed", "header-row", "sheet-ignored", "encoding", "sorted"}
+	"gap-split", "trimmed", "header-row", "sheet-ignored", "encoding", "sorted", "formula"}
 
 // String formats a note for a report line: "line 4, column 2 ("x"): message".
 func (n Note) String() string {

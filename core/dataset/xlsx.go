@@ -117,6 +117,14 @@ func ReadXLSX(name string, data []byte, opt *Options) (t *Table, err error) {
 		return nil, firstErr
 	}
 	t.Name = name
+	if refs := formulaCells(data, chosen); len(refs) > 0 {
+		list := strings.Join(refs[:min(len(refs), 10)], ", ")
+		if len(refs) > 10 {
+			list += fmt.Sprintf(" and %d more", len(refs)-10)
+		}
+		t.Notes = append(t.Notes, Note{Kind: "formula",
+			Message: fmt.Sprintf("%s a formula without a saved value, read as empty (%s); open and save the workbook in a spreadsheet program to store the values", plural(len(refs), "cell holds", "cells hold"), list)})
+	}
 	for _, r := range all {
 		if r.sheet != chosen && r.rows > 0 {
 			t.Notes = append(t.Notes, Note{Kind: "sheet-ignored",
@@ -250,4 +258,12 @@ func serialDates(c []string) []string {
 		out[i] = serialEpoch.AddDate(0, 0, int(v)).Format("2006-01-02")
 	}
 	return out
+}
+
+// plural is "1 one" or "n many".
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
 }

@@ -132,3 +132,24 @@ func TestWorkbookSheets(t *testing.T) {
 		t.Errorf("blank row: %v %+v", err, tb)
 	}
 }
+
+// A formula without a saved value (ECMA-376 Part 1, 18.3.1.4: a c element
+// with an f child and no v child) is read as empty, and noted.
+func TestWorkbookFormulaWithoutValue(t *testing.T) {
+	book := makeWorkbook(t, []testSheet{{"S", []string{
+		row(1, "year", "y", "z"),
+		row(2, "2001", "1", "5"),
+		row(3, "2002", "2", "") + `<c r="C3"><f>C2*2</f></c>`,
+		row(4, "2003", "3", "") + `<c r="C4"><f>C3*2</f><v>20</v></c>`,
+	}}})
+	tb, err := ReadXLSX("f.xlsx", book, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !hasNote(tb, "formula", "1 cell holds a formula without a saved value, read as empty (C3)") {
+		t.Errorf("notes %q", tb.Messages())
+	}
+	if z := tb.Series[1].Values; !math.IsNaN(z[1]) || z[2] != 20 {
+		t.Errorf("z = %v", z)
+	}
+}

@@ -47,7 +47,7 @@ type Note struct {
 	// Kind names the finding: decimal-mark, thousands, renamed, short-row,
 	// blank-row, skipped-column, empty-column, index-column, not-years,
 	// date-format, date-period, irregular, gap, gap-kept, gap-split,
-	// trimmed, header-row, sheet-ignored, encoding, sorted.
+	// trimmed, header-row, sheet-ignored, encoding, sorted, formula.
 	Kind    string `json:"kind"`
 	Message string `json:"message"`
 	// Row is the 1-based line of the input file (sheet row for a workbook)
