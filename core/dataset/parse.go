@@ -240,7 +240,7 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 		return nil, &ParseError{File: name, Row: head.line, Err: wrapf(ErrNoHeader, "the first row holds no column names")}
 	}
 	// Data rows and the blank rows between them.
-	var rows []record
+	rows := make([]record, 0, len(recs)-1)
 	type blankAt struct{ pos, line int }
 	var blanks []blankAt
 	for _, r := range recs[1:] {
