@@ -170,8 +170,7 @@ func (lr *LongReader) Next() (*Table, error) {
 		return nil, io.EOF
 	}
 	if err != nil {
-		lr.err = &ParseError{File: lr.name, Row: lr.rr.line, Err: err}
-		return nil, lr.err
+		return nil, lr.readErr(err)
 	}
 	id := lr.field(first, lr.id)
 	recs := []*record{first}
@@ -181,8 +180,7 @@ func (lr *LongReader) Next() (*Table, error) {
 			break
 		}
 		if err != nil {
-			lr.err = &ParseError{File: lr.name, Row: lr.rr.line, Err: err}
-			return nil, lr.err
+			return nil, lr.readErr(err)
 		}
 		if lr.field(next, lr.id) != id {
 			lr.pending = next
@@ -198,6 +196,20 @@ func (lr *LongReader) Next() (*Table, error) {
 	return lr.table(id, recs, false)
 }
 
+// readErr records a read error: a quote left open (which consumed the rest
+// of the input) is returned once and the reader then ends; other read errors
+// are returned by every later call.
+func (lr *LongReader) readErr(err error) error {
+	var pe *ParseError
+	if errors.As(err, &pe) {
+		pe.File = lr.name
+		lr.err = io.EOF
+		return pe
+	}
+	lr.err = &ParseError{File: lr.name, Row: lr.rr.line, Err: err}
+	return lr.err
+}
+
 // nextGrouped reads the whole file on the first call, groups its rows by id
 // (in order of first appearance) and returns one group per call.
 func (lr *LongReader) nextGrouped() (*Table, error) {
@@ -209,8 +221,7 @@ func (lr *LongReader) nextGrouped() (*Table, error) {
 				break
 			}
 			if err != nil {
-				lr.err = &ParseError{File: lr.name, Row: lr.rr.line, Err: err}
-				return nil, lr.err
+				return nil, lr.readErr(err)
 			}
 			id := lr.field(r, lr.id)
 			k, ok := index[id]
