@@ -22,7 +22,10 @@
 // byte-order mark is converted (noted); UTF-32 and UTF-16 without a
 // byte-order mark are refused by name (ErrEncoding).
 //
-// A header row is required. Empty header cells are named columnN, repeated
+// A header row is required; title lines above it (one text cell, no
+// delimiter) are skipped with a note. When every data row has one cell more
+// than the header and the first cells are 1..N or text, the first column is
+// row names written without a header cell (noted). Empty header cells are named columnN, repeated
 // names get the first free suffix _2, _3 ... (noted; no column is lost). A
 // row with more non-empty cells than the header is an error (ErrExtraCells)
 // naming the row: an unquoted "1,234.5" in a comma file would otherwise shift

@@ -110,3 +110,15 @@ func TestReaderErrors(t *testing.T) {
 		}
 	}
 }
+
+// Row names without a header cell are an index; the same shape with a
+// thousands comma in every row stays an error.
+func TestRowNamesWithoutHeaderCell(t *testing.T) {
+	tb, err := Parse("r", []byte("x,y\na,1,2\nb,3,4\nc,5,7\n"), nil)
+	if err != nil || names(tb) != "x|y" || !hasNote(tb, "renamed", "row names") {
+		t.Errorf("text row names: %v %+v", err, tb)
+	}
+	if _, err := Parse("r", []byte("year,revenue\n2001,1,234\n2002,1,300\n"), nil); !errors.Is(err, ErrExtraCells) {
+		t.Errorf("thousands comma in every row: %v", err)
+	}
+}

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"strconv"
 	"strings"
 	"unicode/utf8"
 )
@@ -251,6 +252,30 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 		rows = append(rows, r)
 	}
 	t := &Table{Name: name, DecimalComma: dec == decComma}
+	// Row names written without a header cell: every data row has one cell
+	// more than the header, and the last cells are not all empty.
+	if len(rows) > 0 {
+		// The row names must be 1..N or text that is not a number (so that a
+		// column of unquoted "1,234" in every row stays an error).
+		shifted, filledLast, count, text := true, false, true, true
+		for i, r := range rows {
+			if len(r.fields) != len(head.fields)+1 {
+				shifted = false
+				break
+			}
+			filledLast = filledLast || trimSpace(r.fields[len(r.fields)-1]) != ""
+			f := trimSpace(r.fields[0])
+			count = count && f == strconv.Itoa(i+1)
+			_, num := parseNumber(f, dec)
+			text = text && f != "" && !num
+		}
+		shifted = shifted && (count || text)
+		if shifted && filledLast {
+			head.fields = append([]string{""}, head.fields...)
+			t.Notes = append(t.Notes, Note{Kind: "renamed", Row: head.line, Column: 1,
+				Message: "every row has one cell more than the header: the first column is taken to be row names without a header cell"})
+		}
+	}
 	if len(head.title) > 0 {
 		t.Notes = append(t.Notes, Note{Kind: "header-row", Row: head.line,
 			Message: fmt.Sprintf("the header is row %d; the title rows above it were skipped (%q)", head.line, strings.Join(head.title, " / "))})
