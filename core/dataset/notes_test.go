@@ -122,3 +122,11 @@ func TestRowNamesWithoutHeaderCell(t *testing.T) {
 		t.Errorf("thousands comma in every row: %v", err)
 	}
 }
+
+// Settings the file cannot use are noted, never dropped silently.
+func TestUnusedSettingsNoted(t *testing.T) {
+	tb, err := Parse("s.csv", []byte("x,y\n5,1\n3,2\n"), &Options{Sheet: "Data", DateFormat: "dmy"})
+	if err != nil || !hasNote(tb, "sheet-ignored", `"Data"`) || !hasNote(tb, "date-format", `"dmy" was given`) {
+		t.Errorf("%v %q", err, tb.Messages())
+	}
+}

@@ -120,6 +120,9 @@ func Parse(name string, data []byte, opt *Options) (*Table, error) {
 		return nil, err
 	}
 	t.Delimiter = rune(delim)
+	if opt.Sheet != "" {
+		t.Notes = append(t.Notes, Note{Kind: "sheet-ignored", Message: fmt.Sprintf("the sheet setting (%q) applies to .xlsx workbooks; this file is text and was read whole", opt.Sheet)})
+	}
 	var pre []Note
 	if encNote != "" {
 		pre = append(pre, Note{Kind: "encoding", Message: encNote})
@@ -515,6 +518,10 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 			t.Notes = append(t.Notes, Note{Kind: "blank-row", Row: blanks[0].line,
 				Message: fmt.Sprintf("%s (%s) read as missing observations", what, list)})
 		}
+	}
+	if dc == nil && opt.DateFormat != "" {
+		t.Notes = append(t.Notes, Note{Kind: "date-format", Row: head.line,
+			Message: fmt.Sprintf("date_format %q was given but no column reads as dates with it: the file is read without dates", opt.DateFormat)})
 	}
 	t.Rows = len(rows)
 	t.Header = names
