@@ -490,7 +490,7 @@ func parseDates(cells []string, o dateOpts) (*dateColumn, *dateColumnError) {
 			notes = append(notes, dateNote{-1, "date-format", fmt.Sprintf("dates read as day/month/year (%q has no other reading)", cells[firstD])})
 		case cs[firstAmb].sep == '.':
 			order = 'd'
-			notes = append(notes, dateNote{-1, "date-format", "dotted dates read as day.month.year (set date_format to mdy for month.day.year)"})
+			notes = append(notes, dateNote{-1, "date-format", "dotted dates read as day.month.year (set date_format (--date-format) to mdy for month.day.year)"})
 		default:
 			dD, eD := finishDates(cells, resolveOrder(cs, 'd'))
 			dM, eM := finishDates(cells, resolveOrder(cs, 'm'))
@@ -502,12 +502,12 @@ func parseDates(cells []string, o dateOpts) (*dateColumn, *dateColumnError) {
 					dc, reading, other = dM, "month/day/year", "day/month/year"
 				}
 				dc.notes = append(notes, dateNote{-1, "date-format", fmt.Sprintf(
-					"dates such as %q read as %s: the only order that gives regular dates (as %s they would not be); set date_format to override",
+					"dates such as %q read as %s: the only order that gives regular dates (as %s they would not be); set date_format (--date-format) to override",
 					cells[firstAmb], reading, other)})
 				return dc, nil
 			}
 			return nil, &dateColumnError{firstAmb, wrapf(ErrAmbiguousDate,
-				"%q and the other dates of the column read as day/month/year or as month/day/year: set date_format to dmy or mdy", cells[firstAmb]), parsed}
+				"this and the other dates of the column read as day/month/year or as month/day/year: set date_format (--date-format) to dmy or mdy"), parsed}
 		}
 	}
 	vs := resolveOrder(cs, order)

@@ -417,10 +417,10 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 		}
 		lo, hi := atoi(d.labels[0]), atoi(d.labels[len(d.labels)-1])
 		if lo < minDataYear || hi > maxDataYear {
-			return fmt.Sprintf("whole numbers %d..%d are not read as years (outside %d-%d); set date_column to read them as years", lo, hi, minDataYear, maxDataYear)
+			return fmt.Sprintf("whole numbers %d..%d are not read as years (outside %d-%d); set date_column (--date-column) to read them as years", lo, hi, minDataYear, maxDataYear)
 		}
 		if !named && len(d.gaps) > 0 {
-			return "whole numbers that do not count up by one are not read as years in a column not named like a date; set date_column to read them as years"
+			return "whole numbers that do not count up by one are not read as years in a column not named like a date; set date_column (--date-column) to read them as years"
 		}
 		return ""
 	}

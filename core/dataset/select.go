@@ -226,7 +226,7 @@ func selectOne(t *Table, p *Series, a, b int, kind string, lag int, gaps string)
 			switch gaps {
 			case "", "stop":
 				r := lo + gs[0].i
-				return Series{}, fail(r, wrapf(ErrGap, "the %s dates skip %s: the tests would treat non-adjacent periods as adjacent; set gaps to split (test the longest stretch without gaps), keep (test the observations as if consecutive) or choose from/to inside one stretch", p.Frequency, desc))
+				return Series{}, fail(r, wrapf(ErrGap, "the %s dates skip %s: the tests would treat non-adjacent periods as adjacent; set gaps (--gaps) to split (test the longest stretch without gaps), keep (test the observations as if consecutive) or choose from/to inside one stretch", p.Frequency, desc))
 			case "keep":
 				notes = append(notes, Note{Kind: "gap-kept", Row: line(lo + gs[0].i), Column: p.Column, ColumnName: p.Name,
 					Message: "tested across calendar gaps (gaps = keep): the observations on either side of " + desc + " are treated as adjacent"})

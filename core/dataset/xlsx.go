@@ -128,7 +128,7 @@ func ReadXLSX(name string, data []byte, opt *Options) (t *Table, err error) {
 	for _, r := range all {
 		if r.sheet != chosen && r.rows > 0 {
 			t.Notes = append(t.Notes, Note{Kind: "sheet-ignored",
-				Message: fmt.Sprintf("sheet %q (%d filled rows) was not read; sheet %q was (set sheet to choose)", r.sheet, r.rows, chosen)})
+				Message: fmt.Sprintf("sheet %q (%d filled rows) was not read; sheet %q was (set sheet, --sheet, to choose)", r.sheet, r.rows, chosen)})
 		}
 	}
 	return t, nil
