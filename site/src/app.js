@@ -219,7 +219,7 @@
   });
 
   // Settings that select the input (they change the preview).
-  const inputSettingIds = ['s-from', 's-to', 's-transform', 's-datecol'];
+  const inputSettingIds = ['s-from', 's-to', 's-transform', 's-datecol', 's-dateformat', 's-gaps', 's-sheet'];
   let previewTimer = 0;
   for (const id of inputSettingIds) {
     $(id).addEventListener('input', () => { clearTimeout(previewTimer); previewTimer = setTimeout(refreshPreview, 350); });
@@ -308,6 +308,9 @@
     put('to', txt('s-to'));
     put('transform', $('s-transform').value);
     put('date_column', txt('s-datecol'));
+    put('date_format', $('s-dateformat').value);
+    put('gaps', $('s-gaps').value);
+    put('sheet', txt('s-sheet'));
     if (inputOnly) return s;
     const cols = [...document.querySelectorAll('#preview input[data-col]')];
     if (cols.length && cols.some((c) => !c.checked)) {
