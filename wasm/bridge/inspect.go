@@ -12,16 +12,15 @@ import (
 // data, before any test runs, and what the current input settings (columns,
 // sample range, transform) select from it.
 type Preview struct {
-	Name         string `json:"name"`
-	Rows         int    `json:"rows"`
-	DateColumn   string `json:"date_column"`
-	Frequency    string `json:"frequency"`
-	FirstDate    string `json:"first_date,omitempty"`
-	LastDate     string `json:"last_date,omitempty"`
-	Delimiter    string `json:"delimiter,omitempty"`
-	DecimalComma bool   `json:"decimal_comma"`
-	// Warnings are the reader's notes (dataset.Table.Notes), one line each.
-	Warnings []string `json:"warnings"`
+	Name         string   `json:"name"`
+	Rows         int      `json:"rows"`
+	DateColumn   string   `json:"date_column"`
+	Frequency    string   `json:"frequency"`
+	FirstDate    string   `json:"first_date,omitempty"`
+	LastDate     string   `json:"last_date,omitempty"`
+	Delimiter    string   `json:"delimiter,omitempty"`
+	DecimalComma bool     `json:"decimal_comma"`
+	Warnings     []string `json:"warnings"` // the reader's notes, one line each
 	// Series describes every numeric column as read.
 	Series []ColumnPreview `json:"series"`
 	// Selected describes what the analysis would use under the settings.
