@@ -150,6 +150,26 @@ func SchemaNotes(ns []dataset.Note) []schema.Note {
 	return out
 }
 
+// WithSourceNotes returns the source's notes followed by those of notes
+// that are not among them: a series' complete list of the reader's notes,
+// for documents that carry no source (several files in one document).
+func WithSourceNotes(src *schema.Source, notes []schema.Note) []schema.Note {
+	if src == nil || len(src.Notes) == 0 {
+		return notes
+	}
+	out := append([]schema.Note(nil), src.Notes...)
+	seen := map[schema.Note]bool{}
+	for _, n := range src.Notes {
+		seen[n] = true
+	}
+	for _, n := range notes {
+		if !seen[n] {
+			out = append(out, n)
+		}
+	}
+	return out
+}
+
 // NewDocument returns an empty document for settings s.
 func NewDocument(s schema.Settings) *schema.Document {
 	return &schema.Document{Schema: schema.ID, Version: Version, Settings: s, Series: []schema.Series{}, Caution: schema.Caution}
