@@ -90,11 +90,12 @@ func Parse(name string, data []byte, opt *Options) (*Table, error) {
 		}
 		delim = byte(opt.Delimiter)
 	} else {
-		delim = detectDelimiter(sampleLines(data, 50, false))
+		head := data[:min(len(data), 64<<10)]
+		delim = detectDelimiter(sampleLines(head, 50, len(head) < len(data)))
 	}
 	rr := newRecordReader(bytes.NewReader(data), delim)
 	rr.keepBlank = true
-	var recs []record
+	recs := make([]record, 0, bytes.Count(data, []byte{'\n'})+1)
 	for {
 		rec, err := rr.next()
 		if err == io.EOF {
