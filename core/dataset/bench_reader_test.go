@@ -109,3 +109,11 @@ func TestStrayQuoteLinear(t *testing.T) {
 		t.Errorf("80,000 rows allocate %.1f times as much as 20,000 (%d, %d bytes)", r, large, small)
 	}
 }
+
+// A header longer than the 64 KiB delimiter sample is still sampled whole.
+func TestWideHeader(t *testing.T) {
+	tb, err := Parse("wide", wideCSV(3, 20000), nil)
+	if err != nil || len(tb.Series) != 20000 || tb.Delimiter != ',' {
+		t.Fatalf("%v", err)
+	}
+}

@@ -90,7 +90,7 @@ func Parse(name string, data []byte, opt *Options) (*Table, error) {
 		}
 		delim = byte(opt.Delimiter)
 	} else {
-		head := data[:min(len(data), 64<<10)]
+		head := data[:sampleEnd(data)]
 		delim = detectDelimiter(sampleLines(head, 50, len(head) < len(data)))
 	}
 	rr := newRecordReader(bytes.NewReader(data), delim)
@@ -135,6 +135,24 @@ func Parse(name string, data []byte, opt *Options) (*Table, error) {
 		t.Notes = append(pre, t.Notes...)
 	}
 	return t, nil
+}
+
+// sampleEnd is the end of the sample of data used to detect the delimiter:
+// whole lines, up to 50 of them or 64 KiB, but at least the first three lines
+// however long (a header of 20,000 columns).
+func sampleEnd(data []byte) int {
+	pos := 0
+	for k := 0; k < 50 && pos < len(data); k++ {
+		i := bytes.IndexAny(data[pos:], "\r\n")
+		if i < 0 {
+			return len(data)
+		}
+		pos += i + 1
+		if pos >= 64<<10 && k >= 2 {
+			break
+		}
+	}
+	return pos
 }
 
 // detectDecimal votes on the decimal mark over every data cell.
