@@ -54,6 +54,7 @@ func TestNotes(t *testing.T) {
 		{"thousands", "d,y\n2000,\"1,234.5\"\n2001,2\n", nil, "y", 2, "thousands", `"1,234.5"`},
 		{"short row", "d,x,y\n2000,1,2\n2001,3\n", nil, "x|y", 2, "short-row", "line 3"},
 		{"UTF-16", string(utf16le("d,y\n2000,1\n2001,2\n")), nil, "y", 2, "encoding", "UTF-16"},
+		{"Windows-1252", "Jahr;Ums\xe4tze \x80\n2000;1\xa0234,5\n2001;2\n", nil, "Umsätze €", 2, "encoding", "Windows-1252"},
 	}
 	for _, c := range cases {
 		tb, err := Parse(c.name, []byte(c.data), c.opt)
@@ -67,6 +68,10 @@ func TestNotes(t *testing.T) {
 		if c.kind != "" && !hasNote(tb, c.kind, c.text) {
 			t.Errorf("%s: notes %q lack %s %q", c.name, tb.Messages(), c.kind, c.text)
 		}
+	}
+	// Windows-1252: the no-break space 0xA0 groups thousands.
+	if tb, err := Parse("w", []byte("Jahr;Ums\xe4tze\n2000;1\xa0234,5\n2001;2\n"), nil); err != nil || tb.Series[0].Values[0] != 1234.5 {
+		t.Errorf("Windows-1252 value: %v %+v", err, tb)
 	}
 	// The blank row is a missing observation; the note about a column is
 	// also in that series.
