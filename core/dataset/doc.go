@@ -20,7 +20,8 @@
 // the file is an error (ErrQuote) naming the line where it opened; reading is
 // linear in the file's size whatever the quoting. UTF-16 text with a
 // byte-order mark is converted (noted); UTF-32 and UTF-16 without a
-// byte-order mark are refused by name (ErrEncoding).
+// byte-order mark are refused by name (ErrEncoding); other text that is not
+// UTF-8 is read as Windows-1252 (noted).
 //
 // A header row is required; title lines above it (one text cell, no
 // delimiter) are skipped with a note. When every data row has one cell more
