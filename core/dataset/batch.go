@@ -29,13 +29,13 @@ type LongOptions struct {
 
 // LongReader streams a long file (one row per id and date) and returns one
 // single-series Table per id. A file whose rows of one id are contiguous is
-// streamed; a file whose ids interleave within its first 64 KiB (sorted by
+// streamed; a file whose ids interleave within its first MiB (sorted by
 // date, say) is read whole and grouped by id, in order of first appearance,
 // with a "sorted" note. Rows of one id out of date order are sorted by date
 // (noted) when every date reads on its own.
 //
 // Errors: a bad record (a bad number or date, an id seen again after the
-// first 64 KiB of a streamed file, an empty id) makes Next return a
+// first MiB of a streamed file, an empty id) makes Next return a
 // *ParseError with its line and the record's id after consuming the rest of
 // that id's rows; calling Next again continues with the next id. Read errors
 // and header errors are returned by every later call.
@@ -50,18 +50,22 @@ type LongReader struct {
 	seen    map[string]bool
 	err     error
 	dopt    dateOpts
-	// unsorted: the ids interleave in the first 64 KiB, so the whole file
+	// unsorted: the ids interleave in the first MiB, so the whole file
 	// is read and grouped by id; groups holds the groups not yet returned.
 	unsorted bool
 	groups   [][]*record
 }
 
+// longWindow is the start of a long file in which interleaved ids are
+// looked for.
+const longWindow = 1 << 20
+
 // NewLongReader reads the header of a long file.
 func NewLongReader(r io.Reader, opt LongOptions) (*LongReader, error) {
-	br := bufio.NewReaderSize(r, 64<<10)
-	peek, _ := br.Peek(64 << 10)
-	partial := len(peek) == 64<<10
-	lines := sampleLines(peek, 50, partial)
+	br := bufio.NewReaderSize(r, longWindow)
+	peek, _ := br.Peek(longWindow)
+	partial := len(peek) == longWindow
+	lines := sampleLines(peek[:min(len(peek), 64<<10)], 50, partial || len(peek) > 64<<10)
 	delim := byte(0)
 	if opt.Delimiter != 0 {
 		if opt.Delimiter >= utf8.RuneSelf || opt.Delimiter == '"' || opt.Delimiter == '\n' || opt.Delimiter == '\r' {
@@ -116,7 +120,7 @@ func NewLongReader(r io.Reader, opt LongOptions) (*LongReader, error) {
 		return nil, &ParseError{File: opt.Name, Row: head.line, ColumnName: missing,
 			Err: wrapf(ErrNoHeader, "no column %q in the header (%s)", missing, strings.Join(lr.names, ", "))}
 	}
-	// Ids that interleave in the first 64 KiB: read the whole file grouped.
+	// Ids that interleave in the first MiB: read the whole file grouped.
 	last, seen := "", map[string]bool{}
 	for _, l := range sampleLines(peek, 1<<20, partial)[1:] {
 		f := splitFields(l, delim)
@@ -190,7 +194,7 @@ func (lr *LongReader) Next() (*Table, error) {
 	}
 	if lr.seen[id] && id != "" {
 		return nil, &ParseError{File: lr.name, Row: first.line, Column: lr.id + 1, ColumnName: lr.names[lr.id], Value: id, ID: id,
-			Err: wrapf(ErrNotContiguous, "id %q appeared before, after the first 64 KiB of the file (files whose ids interleave there are sorted in memory): sort the file by id", id)}
+			Err: wrapf(ErrNotContiguous, "id %q appeared before, after the first MiB of the file (files whose ids interleave there are grouped in memory): sort the file by id", id)}
 	}
 	lr.seen[id] = true
 	return lr.table(id, recs, false)

@@ -127,7 +127,7 @@
 // # Long files and JSON Lines
 //
 // LongReader streams files whose rows of one id are contiguous and groups
-// in memory files whose ids interleave in the first 64 KiB; rows of one id out
+// in memory files whose ids interleave in the first MiB; rows of one id out
 // of date order are sorted by date. Both are noted. A failed record's error
 // carries its id (ParseError.ID).
 //
