@@ -142,6 +142,7 @@ type task struct {
 	freq   string
 	in     dataset.Series
 	fail   error
+	notes  []dataset.Note // the reader's notes on the input (record's source notes)
 }
 
 // Run streams every series of cfg.Inputs through the battery with cfg.Jobs
@@ -215,10 +216,11 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 			defer wg.Done()
 			for t := range tasks {
 				doc := battery.NewDocument(cfg.Settings)
-				doc.Source = &schema.Source{Name: t.source, Rows: len(t.in.Values), Frequency: t.freq}
+				doc.Source = &schema.Source{Name: t.source, Rows: len(t.in.Values), Frequency: t.freq, Notes: battery.SchemaNotes(t.notes)}
 				var sr schema.Series
 				if t.fail != nil {
 					sr = battery.FailedSeries(t.in.Name, t.freq, cfg.Settings, t.fail)
+					sr.Notes = battery.SchemaNotes(t.in.Notes)
 				} else {
 					var err error
 					sr, err = battery.AnalyzeSeries(ctx, t.in, cfg.Settings, opt)
@@ -359,9 +361,9 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 				if rerr != nil {
 					return rerr
 				}
-				t, err = dataset.Parse(name, data, &dataset.Options{DateColumn: cfg.Settings.DateColumn})
+				t, err = dataset.Parse(name, data, dataset.OptionsFor(cfg.Settings))
 			} else {
-				t, err = dataset.ReadFile(p, &dataset.Options{DateColumn: cfg.Settings.DateColumn})
+				t, err = dataset.ReadFile(p, dataset.OptionsFor(cfg.Settings))
 			}
 			if err != nil {
 				ok = badInput(name, err)
@@ -383,13 +385,19 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 func streamTables(ctx context.Context, name string, cfg Config, emit func(task) bool, bad func(string, error) bool, r io.Reader, long bool) bool {
 	var next func() (*dataset.Table, error)
 	if long {
-		lr, err := dataset.NewLongReader(r, cfg.Long)
+		lo := cfg.Long
+		if lo.DateFormat == "" {
+			lo.DateFormat = cfg.Settings.DateFormat
+		}
+		lr, err := dataset.NewLongReader(r, lo)
 		if err != nil {
 			return bad(name, err)
 		}
 		next = lr.Next
 	} else {
-		next = dataset.NewJSONLReader(r).Next
+		jr := dataset.NewJSONLReader(r)
+		jr.DateFormat = cfg.Settings.DateFormat
+		next = jr.Next
 	}
 	for ctx.Err() == nil {
 		t, err := next()
@@ -418,6 +426,9 @@ func streamTables(ctx context.Context, name string, cfg Config, emit func(task) 
 
 func recordName(err error) string {
 	var pe *dataset.ParseError
+	if errors.As(err, &pe) && pe.ID != "" {
+		return pe.ID
+	}
 	if errors.As(err, &pe) && pe.Row > 0 {
 		return fmt.Sprintf("line %d", pe.Row)
 	}
@@ -436,17 +447,17 @@ func emitTable(source string, t *dataset.Table, cfg Config, emit func(task) bool
 		byName[p.Name] = p
 	}
 	for _, pe := range t.Skipped {
-		if !emit(task{source: source, freq: t.Frequency, in: dataset.Series{Name: pe.ColumnName, Column: pe.Column}, fail: pe}) {
+		if !emit(task{source: source, freq: t.Frequency, notes: t.Notes, in: dataset.Series{Name: pe.ColumnName, Column: pe.Column}, fail: pe}) {
 			return false
 		}
 	}
 	for _, col := range t.Series {
 		if p, ok := byName[col.Name]; ok {
-			if !emit(task{source: source, freq: t.Frequency, in: p}) {
+			if !emit(task{source: source, freq: t.Frequency, notes: t.Notes, in: p}) {
 				return false
 			}
 		} else if e, ok := failed[col.Name]; ok {
-			if !emit(task{source: source, freq: t.Frequency, in: dataset.Series{Name: col.Name}, fail: e}) {
+			if !emit(task{source: source, freq: t.Frequency, notes: t.Notes, in: dataset.Series{Name: col.Name, Notes: col.Notes}, fail: e}) {
 				return false
 			}
 		}

@@ -44,7 +44,7 @@ func AnalyzeText(ctx context.Context, name string, data []byte, s schema.Setting
 	if err := Validate(s); err != nil {
 		return nil, nil, err
 	}
-	dopt := &dataset.Options{DateColumn: s.DateColumn}
+	dopt := dataset.OptionsFor(s)
 	var t *dataset.Table
 	var err error
 	if strings.HasSuffix(strings.ToLower(name), ".xlsx") {
@@ -71,7 +71,7 @@ func Analyze(ctx context.Context, t *dataset.Table, s schema.Settings, opt *Opti
 		opt = &Options{}
 	}
 	doc := NewDocument(s)
-	doc.Source = &schema.Source{Name: t.Name, Rows: t.Rows, DateColumn: t.DateColumn, Frequency: t.Frequency}
+	doc.Source = &schema.Source{Name: t.Name, Rows: t.Rows, DateColumn: t.DateColumn, Frequency: t.Frequency, Notes: SchemaNotes(t.Notes)}
 	prepared, errs := dataset.Select(t, s)
 	failed := map[string]error{}
 	for i := range errs {
@@ -110,7 +110,9 @@ func Analyze(ctx context.Context, t *dataset.Table, s schema.Settings, opt *Opti
 			emit(sr, p)
 		} else if e, ok := failed[col.Name]; ok {
 			seen[col.Name] = true
-			emit(FailedSeries(col.Name, col.Frequency, s, e), dataset.Series{Name: col.Name, Column: col.Column})
+			sr := FailedSeries(col.Name, col.Frequency, s, e)
+			sr.Notes = SchemaNotes(col.Notes)
+			emit(sr, dataset.Series{Name: col.Name, Column: col.Column})
 		}
 	}
 	// Columns that are not series (a cell that is neither a number nor a
@@ -132,6 +134,41 @@ func Analyze(ctx context.Context, t *dataset.Table, s schema.Settings, opt *Opti
 		return nil, nil, fmt.Errorf("%s: no series to analyse", t.Name)
 	}
 	return doc, inputs, nil
+}
+
+// SchemaNotes converts the reader's notes for the document.
+func SchemaNotes(ns []dataset.Note) []schema.Note {
+	if len(ns) == 0 {
+		return nil
+	}
+	out := make([]schema.Note, len(ns))
+	for i, n := range ns {
+		out[i] = schema.Note{Kind: n.Kind, Message: n.Message, Row: n.Row, Column: n.ColumnName}
+		if out[i].Column == "" && n.Column > 0 {
+			out[i].Column = strconv.Itoa(n.Column)
+		}
+	}
+	return out
+}
+
+// WithSourceNotes returns the source's notes followed by those of notes
+// that are not among them: a series' complete list of the reader's notes,
+// for documents that carry no source (several files in one document).
+func WithSourceNotes(src *schema.Source, notes []schema.Note) []schema.Note {
+	if src == nil || len(src.Notes) == 0 {
+		return notes
+	}
+	out := append([]schema.Note(nil), src.Notes...)
+	seen := map[schema.Note]bool{}
+	for _, n := range src.Notes {
+		seen[n] = true
+	}
+	for _, n := range notes {
+		if !seen[n] {
+			out = append(out, n)
+		}
+	}
+	return out
 }
 
 // NewDocument returns an empty document for settings s.
@@ -165,7 +202,7 @@ func AnalyzeSeries(ctx context.Context, in dataset.Series, s schema.Settings, op
 	y := in.Values
 	sr := schema.Series{
 		Name: in.Name, N: len(y), Frequency: in.Frequency, Transform: s.Transform,
-		Results: []schema.Result{}, Errors: []schema.Error{},
+		Results: []schema.Result{}, Errors: []schema.Error{}, Notes: SchemaNotes(in.Notes),
 	}
 	if len(in.Dates) == len(y) && len(y) > 0 {
 		sr.Start, sr.End = in.Dates[0], in.Dates[len(y)-1]

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"github.com/rootshift/rootshift/core"
+	"github.com/rootshift/rootshift/core/dataset"
 	"github.com/rootshift/rootshift/core/schema"
 )
 
@@ -82,6 +83,12 @@ func Validate(s schema.Settings) error {
 	}
 	if !slices.Contains(Transforms, s.Transform) {
 		return usage("transform", "%q: want log, diff, diff2 or logdiff", s.Transform)
+	}
+	if !slices.Contains(dataset.DateFormats, strings.ToLower(s.DateFormat)) {
+		return usage("date_format", "%q: want dmy (31/01/2005), mdy (01/31/2005), yyyymm (200501), yyyyq (20051) or yyyymmdd (20050131)", s.DateFormat)
+	}
+	if !slices.Contains(dataset.GapRules, s.Gaps) {
+		return usage("gaps", "%q: want stop, keep or split", s.Gaps)
 	}
 	if s.Window != "" {
 		if _, _, ok := strings.Cut(s.Window, ":"); !ok {

@@ -14,8 +14,10 @@ import (
 //
 //	row_type           "result" (one per series and test), "component" (one per
 //	                   M-test statistic or structural-change statistic, under its
-//	                   result), "error", "warning", or "series" (only for a series
-//	                   that has no other row)
+//	                   result), "error", "warning", "series" (only for a series
+//	                   that has no other row), or "note" (after every series: one
+//	                   per reader note on the input, series empty for a note on
+//	                   the whole file; the note in message)
 //	id                 "SOURCE:SERIES" when the document names its source
 //	                   (doc.Source.Name, e.g. the input file), else the series
 //	                   name; it tells apart rows from different files in one
@@ -77,6 +79,11 @@ func WriteCSV(w io.Writer, doc *schema.Document) error {
 			if err := cw.Write(rec); err != nil {
 				return err
 			}
+		}
+	}
+	for _, rec := range csvNoteRows(doc) {
+		if err := cw.Write(rec); err != nil {
+			return err
 		}
 	}
 	cw.Flush()

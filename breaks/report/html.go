@@ -84,6 +84,7 @@ func WriteHTML(w io.Writer, doc *schema.Document, inputs []dataset.Series) error
 		meta += ". "
 	}
 	e.print("<p class=\"settings\">" + esc(meta+"Settings: "+strings.Join(settingsNotes(&doc.Settings), "; ")+".") + "</p>\n")
+	htmlList(e, "Notes on the input", "notes", inputNotes(doc))
 	if len(doc.Series) > 1 {
 		htmlOverview(e, doc)
 	}

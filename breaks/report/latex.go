@@ -59,8 +59,11 @@ func WriteLaTeX(w io.Writer, doc *schema.Document) error {
 	}
 	e.print("\\hline\n")
 	notes := "Notes: " + texEscape(strings.Join(settingsNotes(&doc.Settings), "; ")) +
-		". Stars: * $p<0.10$, ** $p<0.05$, *** $p<0.01$ (simulated $p$-value or critical values when there is no asymptotic one). " +
-		"Caution: " + texEscape(caution(doc))
+		". Stars: * $p<0.10$, ** $p<0.05$, *** $p<0.01$ (simulated $p$-value or critical values when there is no asymptotic one)."
+	if in := inputNotes(doc); len(in) > 0 {
+		notes += " Input: " + texEscape(strings.Join(in, "; ")) + "."
+	}
+	notes += " Caution: " + texEscape(caution(doc))
 	t.span(texWide, "\\footnotesize "+notes)
 	e.print("\\end{tabular}\n\\end{table}\n")
 	return e.err

@@ -27,6 +27,12 @@ func WriteMarkdown(w io.Writer, doc *schema.Document) error {
 		e.print("Version " + mdText(doc.Version) + ". ")
 	}
 	e.print("Settings: " + mdText(strings.Join(settingsNotes(&doc.Settings), "; ")) + ".\n")
+	if notes := inputNotes(doc); len(notes) > 0 {
+		e.print("\nNotes on the input:\n\n")
+		for _, n := range notes {
+			e.print("- " + mdText(n) + "\n")
+		}
+	}
 	for i := range doc.Series {
 		mdSeries(e, &doc.Series[i])
 	}

@@ -36,6 +36,18 @@ func WriteTable(w io.Writer, doc *schema.Document) error {
 	for _, l := range wrap("settings: "+strings.Join(settingsNotes(&doc.Settings), "; "), tableWidth-2) {
 		e.print(l + "\n")
 	}
+	if notes := inputNotes(doc); len(notes) > 0 {
+		e.print("notes on the input:\n")
+		for _, n := range notes {
+			for k, l := range wrap(visible(n), tableWidth-6) {
+				if k == 0 {
+					e.print("  - " + l + "\n")
+				} else {
+					e.print("    " + l + "\n")
+				}
+			}
+		}
+	}
 	if len(doc.Series) > 1 {
 		e.print("\n")
 		tableOverview(e, doc)

@@ -86,6 +86,9 @@ func settingsFlags(fs *flag.FlagSet, s *schema.Settings) {
 	fs.StringVar(&s.To, "to", "", "last observation of the sample (date or number)")
 	fs.StringVar(&s.Transform, "transform", "", "transform before testing: log, diff, diff2, logdiff")
 	fs.StringVar(&s.DateColumn, "date-column", "", "name of the date column (default: detected)")
+	fs.StringVar(&s.DateFormat, "date-format", "", "read ambiguous dates as dmy (31/01/2005), mdy (01/31/2005), yyyymm, yyyyq or yyyymmdd (default: decided from the column)")
+	fs.StringVar(&s.Gaps, "gaps", "", "calendar gaps inside a series: stop (default, error), keep (test as if consecutive) or split (longest stretch without gaps)")
+	fs.StringVar(&s.Sheet, "sheet", "", "worksheet of an .xlsx file to read (default: the first with data)")
 }
 
 // parseInterleaved parses flags that may come before or after positional

@@ -121,6 +121,7 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			for i := range d.Series {
 				d.Series[i].Name = filepath.Base(name) + ":" + d.Series[i].Name
 				in[i].Name = d.Series[i].Name
+				d.Series[i].Notes = battery.WithSourceNotes(d.Source, d.Series[i].Notes) // the source is dropped below
 			}
 		}
 		if doc == nil {

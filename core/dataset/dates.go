@@ -124,57 +124,154 @@ func monthOf(t tok) int {
 	return monthNames[strings.ToLower(t.s)]
 }
 
-// parseDate reads one date cell in any accepted form.
+// parseDate reads one date cell in any accepted form that needs no
+// column context (sample-range and break-date specs): a numeric
+// day-month-year triple with the year last is accepted only when it is
+// unambiguous (one number exceeds 12, or dots: day.month.year), a two-digit
+// year after a month name uses the 1969-2068 window.
 func parseDate(s string) (dval, bool) {
-	s = stripMidnight(trimSpace(s))
-	var tk [5]tok
-	n, ok := tokenize(s, &tk)
+	c, ok := parseCell(s, 0)
 	if !ok {
 		return dval{}, false
 	}
-	t := tk[:n]
-	var v dval
-	switch n {
-	case 1:
-		if isYear(t[0]) && t[0].sep == 0 {
-			v = dval{k: kYear, y: atoi(t[0].s)}
-		}
-	case 2:
+	v := c.v
+	if c.amb {
 		switch {
-		case isYear(t[0]) && isSmall(t[1]) && (t[1].sep == '-' || t[1].sep == '/'):
-			v = dval{k: kMonth, y: atoi(t[0].s), m: atoi(t[1].s)}
-		case isYear(t[0]) && isSmall(t[1]) && t[1].sep == ':':
-			v = dval{k: kColon, y: atoi(t[0].s), m: atoi(t[1].s)}
-		case isSmall(t[0]) && isYear(t[1]) && (t[1].sep == '/' || t[1].sep == '-'):
-			v = dval{k: kMonth, y: atoi(t[1].s), m: atoi(t[0].s)}
-		case monthOf(t[0]) > 0 && isYear(t[1]) && t[1].sep != ':':
-			v = dval{k: kMonth, y: atoi(t[1].s), m: monthOf(t[0])}
-		case isYear(t[0]) && monthOf(t[1]) > 0 && t[1].sep != 0 && t[1].sep != ':':
-			v = dval{k: kMonth, y: atoi(t[0].s), m: monthOf(t[1])}
+		case c.order == 'd' || (c.order == 0 && c.sep == '.'):
+			v.m, v.d = v.d, v.m
+		case c.order == 'm':
+		default:
+			return dval{}, false
 		}
-	case 3:
-		a, b, c := t[0], t[1], t[2]
-		switch {
-		case isYear(a) && !b.digit && isSmall(c) && c.sep == 0 && (b.s == "Q" || b.s == "q") && b.sep != ':':
-			v = dval{k: kQuarter, y: atoi(a.s), m: atoi(c.s)}
-		case isYear(a) && !b.digit && isSmall(c) && c.sep == 0 && (b.s == "M" || b.s == "m") && b.sep == 0:
-			v = dval{k: kMonth, y: atoi(a.s), m: atoi(c.s)}
-		case !a.digit && (a.s == "Q" || a.s == "q") && isSmall(b) && b.sep == 0 && isYear(c) && c.sep != ':':
-			v = dval{k: kQuarter, y: atoi(c.s), m: atoi(b.s)}
-		case isYear(a) && isSmall(b) && isSmall(c) && (b.sep == '-' || b.sep == '/' || b.sep == '.') && c.sep == b.sep:
-			v = dval{k: kDay, y: atoi(a.s), m: atoi(b.s), d: atoi(c.s)}
-		case isSmall(a) && isSmall(b) && isYear(c) && b.sep == '.' && c.sep == '.':
-			v = dval{k: kDay, y: atoi(c.s), m: atoi(b.s), d: atoi(a.s)}
-		case monthOf(a) > 0 && isSmall(b) && isYear(c) && b.sep == ' ' && (c.sep == ' ' || c.sep == ','):
-			v = dval{k: kDay, y: atoi(c.s), m: monthOf(a), d: atoi(b.s)}
-		case isSmall(a) && monthOf(b) > 0 && isYear(c) && (b.sep == ' ' || b.sep == '-') && c.sep == b.sep:
-			v = dval{k: kDay, y: atoi(c.s), m: monthOf(b), d: atoi(a.s)}
-		}
+	}
+	if c.yy {
+		v.y = century(v.y)
 	}
 	if !valid(v) {
 		return dval{}, false
 	}
 	return v, true
+}
+
+// century reads a two-digit year in the window 1969-2068.
+func century(yy int) int {
+	if yy >= 69 {
+		return 1900 + yy
+	}
+	return 2000 + yy
+}
+
+// cellDate is one date cell before the column decides what it cannot:
+// amb marks a numeric triple "a/b/YYYY" whose day-month order is open (v.m
+// holds a, v.d holds b); yy marks a two-digit year (v.y is 0..99).
+type cellDate struct {
+	v     dval
+	amb   bool
+	order byte // for amb: 'm' only month/day/year is a valid day, 'd' only day/month/year, 0 both
+	yy    bool
+	sep   byte
+}
+
+// parseCell reads one cell. ints is the length of whole numbers read as
+// dates: 0 none, 5 year-quarter (20051), 6 year-month (200501), 8
+// year-month-day (20050131), -1 all three.
+func parseCell(s string, ints int) (cellDate, bool) {
+	s = stripMidnight(trimSpace(s))
+	var tk [5]tok
+	n, ok := tokenize(s, &tk)
+	if !ok {
+		return cellDate{}, false
+	}
+	t := tk[:n]
+	var c cellDate
+	v := &c.v
+	switch n {
+	case 1:
+		a := t[0]
+		if !a.digit || a.sep != 0 {
+			break
+		}
+		l := len(a.s)
+		useInt := ints == -1 || ints == l
+		switch {
+		case l == 4:
+			*v = dval{k: kYear, y: atoi(a.s)}
+		case l == 5 && useInt:
+			*v = dval{k: kQuarter, y: atoi(a.s[:4]), m: atoi(a.s[4:])}
+		case l == 6 && useInt:
+			*v = dval{k: kMonth, y: atoi(a.s[:4]), m: atoi(a.s[4:])}
+		case l == 8 && useInt:
+			*v = dval{k: kDay, y: atoi(a.s[:4]), m: atoi(a.s[4:6]), d: atoi(a.s[6:])}
+		}
+	case 2:
+		a, b := t[0], t[1]
+		switch {
+		case isYear(a) && isSmall(b) && (b.sep == '-' || b.sep == '/'):
+			*v = dval{k: kMonth, y: atoi(a.s), m: atoi(b.s)}
+		case isYear(a) && isSmall(b) && b.sep == ':':
+			*v = dval{k: kColon, y: atoi(a.s), m: atoi(b.s)}
+		case isSmall(a) && isYear(b) && (b.sep == '/' || b.sep == '-' || b.sep == '.'):
+			*v = dval{k: kMonth, y: atoi(b.s), m: atoi(a.s)}
+		case monthOf(a) > 0 && isYear(b) && b.sep != ':':
+			*v = dval{k: kMonth, y: atoi(b.s), m: monthOf(a)}
+		case monthOf(a) > 0 && b.digit && len(b.s) == 2 && (b.sep == '-' || b.sep == ' ' || b.sep == 0):
+			*v = dval{k: kMonth, y: atoi(b.s), m: monthOf(a)}
+			c.yy = true
+		case isYear(a) && monthOf(b) > 0 && b.sep != 0 && b.sep != ':':
+			*v = dval{k: kMonth, y: atoi(a.s), m: monthOf(b)}
+		}
+	case 3:
+		a, b, d := t[0], t[1], t[2]
+		switch {
+		case isYear(a) && !b.digit && isSmall(d) && d.sep == 0 && (b.s == "Q" || b.s == "q") && b.sep != ':':
+			*v = dval{k: kQuarter, y: atoi(a.s), m: atoi(d.s)}
+		case isYear(a) && !b.digit && isSmall(d) && d.sep == 0 && (b.s == "M" || b.s == "m") && b.sep == 0:
+			*v = dval{k: kMonth, y: atoi(a.s), m: atoi(d.s)}
+		case !a.digit && (a.s == "Q" || a.s == "q") && isSmall(b) && b.sep == 0 && isYear(d) && d.sep != ':':
+			*v = dval{k: kQuarter, y: atoi(d.s), m: atoi(b.s)}
+		case isYear(a) && isSmall(b) && isSmall(d) && (b.sep == '-' || b.sep == '/' || b.sep == '.') && d.sep == b.sep:
+			*v = dval{k: kDay, y: atoi(a.s), m: atoi(b.s), d: atoi(d.s)}
+		case isSmall(a) && isSmall(b) && isYear(d) && (b.sep == '.' || b.sep == '/' || b.sep == '-') && d.sep == b.sep:
+			*v = dval{k: kDay, y: atoi(d.s), m: atoi(a.s), d: atoi(b.s)}
+			c.amb, c.sep = true, b.sep
+		case monthOf(a) > 0 && isSmall(b) && isYear(d) && b.sep == ' ' && (d.sep == ' ' || d.sep == ','):
+			*v = dval{k: kDay, y: atoi(d.s), m: monthOf(a), d: atoi(b.s)}
+		case isSmall(a) && monthOf(b) > 0 && isYear(d) && (b.sep == ' ' || b.sep == '-') && d.sep == b.sep:
+			*v = dval{k: kDay, y: atoi(d.s), m: monthOf(b), d: atoi(a.s)}
+		case isYear(a) && monthOf(b) > 0 && isSmall(d) && (b.sep == '-' || b.sep == ' ') && d.sep == b.sep:
+			*v = dval{k: kDay, y: atoi(a.s), m: monthOf(b), d: atoi(d.s)}
+		}
+	}
+	if v.k == kNone {
+		return cellDate{}, false
+	}
+	if c.amb {
+		// order records which readings are valid days: 'm' month/day/year
+		// only, 'd' day/month/year only, 0 both.
+		a, b := v.m, v.d
+		ok1 := valid(dval{k: kDay, y: v.y, m: a, d: b})
+		ok2 := valid(dval{k: kDay, y: v.y, m: b, d: a})
+		switch {
+		case ok1 && ok2:
+		case ok1:
+			c.order = 'm'
+		case ok2:
+			c.order = 'd'
+		default:
+			return cellDate{}, false
+		}
+		return c, true
+	}
+	if c.yy {
+		if v.y < 0 || v.y > 99 || v.m < 1 || v.m > 12 {
+			return cellDate{}, false
+		}
+		return c, true
+	}
+	if !valid(*v) {
+		return cellDate{}, false
+	}
+	return c, true
 }
 
 func daysIn(y, m int) int {
@@ -240,42 +337,252 @@ func label(v dval) string {
 	return ""
 }
 
+// DateFormats lists the accepted values of Options.DateFormat (and of the
+// date_format setting): "dmy" and "mdy" fix the order of numeric
+// day-month-year dates with the year last (31/01/2005, 01/31/2005, with '/',
+// '.' or '-'); "yyyymm", "yyyyq" and "yyyymmdd" read whole numbers of that
+// shape (200501, 20051, 20050131) as dates in any column. "" detects.
+var DateFormats = []string{"", "dmy", "mdy", "yyyymm", "yyyyq", "yyyymmdd"}
+
+// AcceptedDateForms is the list of date forms named in errors.
+const AcceptedDateForms = "2005; 2005Q1, Q1 2005, 2005-Q1, 2005:1; 2005-01, 2005M01, 01/2005, Jan 2005, " +
+	"January 2005, Jan-05, 2005-Jan; 2005-01-31, 31/01/2005, 01/31/2005, 31.01.2005, Jan 31 2005, " +
+	"31 Jan 2005; and in a date-named column 200501 (year-month), 20051 (year-quarter), 20050131"
+
+// dateOpts is a parsed DateFormat.
+type dateOpts struct {
+	order byte // 'd' day/month/year, 'm' month/day/year, 0 detect
+	ints  int  // see parseCell
+	name  string
+}
+
+// parseDateFormat reads a DateFormat value; ints is the integer forms
+// allowed without one (-1 in a date-named column, 0 elsewhere).
+func parseDateFormat(f string, ints int) (dateOpts, error) {
+	switch strings.ToLower(trimSpace(f)) {
+	case "":
+		return dateOpts{ints: ints}, nil
+	case "dmy":
+		return dateOpts{order: 'd', ints: ints, name: "dmy"}, nil
+	case "mdy":
+		return dateOpts{order: 'm', ints: ints, name: "mdy"}, nil
+	case "yyyymm":
+		return dateOpts{ints: 6, name: "yyyymm"}, nil
+	case "yyyyq":
+		return dateOpts{ints: 5, name: "yyyyq"}, nil
+	case "yyyymmdd":
+		return dateOpts{ints: 8, name: "yyyymmdd"}, nil
+	}
+	return dateOpts{}, wrapf(ErrBadDate, "date_format %q: want one of dmy, mdy, yyyymm, yyyyq, yyyymmdd", f)
+}
+
+// gap is a run of missing periods in a regular date column: the periods
+// first..last (canonical labels), missing of them, before observation i.
+type gap struct {
+	i           int
+	missing     int
+	first, last string
+}
+
+// dateNote is a finding about a date column; i is the cell index or -1.
+type dateNote struct {
+	i    int
+	kind string
+	msg  string
+}
+
 // dateColumn is a parsed date column.
 type dateColumn struct {
 	kind   kind
 	freq   string
 	labels []string
 	warn   string
+	gaps   []gap
+	notes  []dateNote
 }
 
-// dateColumnError is the failure of parseDateColumn at cell index i.
+// dateColumnError is the failure of parseDates at cell index i; parsed is
+// the number of cells that were dates of some form.
 type dateColumnError struct {
-	i   int
-	err error
+	i      int
+	err    error
+	parsed int
 }
 
-// parseDates parses a whole date column, resolving "2009:1" forms, reducing
-// daily dates that are all on one day of the month, checking order and
-// detecting the frequency. On failure it returns the index of the bad cell.
-func parseDates(cells []string) (*dateColumn, *dateColumnError) {
+var kindNames = map[kind]string{kYear: "annual", kQuarter: "quarterly", kMonth: "monthly", kDay: "daily", kColon: "year:period"}
+
+// parseDates parses a whole date column: every cell must be a date of one
+// kind; the day-month order of numeric dates and the century of two-digit
+// years are decided from the whole column; "2009:1" forms are resolved;
+// daily dates that are all on one day of the month become months (quarters,
+// years); order is checked and the frequency and calendar gaps detected. On
+// failure it returns the index of the bad cell.
+func parseDates(cells []string, o dateOpts) (*dateColumn, *dateColumnError) {
 	if len(cells) == 0 {
-		return nil, &dateColumnError{0, wrapf(ErrBadDate, "no dates")}
+		return nil, &dateColumnError{0, wrapf(ErrBadDate, "no dates"), 0}
 	}
-	vs := make([]dval, len(cells))
-	maxSub := 0
+	cs := make([]cellDate, len(cells))
+	bad, parsed := -1, 0
+	count := map[kind]int{}
 	for i, c := range cells {
-		v, ok := parseDate(c)
+		cd, ok := parseCell(c, o.ints)
 		if !ok {
-			return nil, &dateColumnError{i, ErrBadDate}
+			if bad < 0 {
+				bad = i
+			}
+			continue
 		}
-		if i > 0 && v.k != vs[0].k {
-			return nil, &dateColumnError{i, wrapf(ErrBadDate, "date form differs from the first row's")}
+		cs[i] = cd
+		parsed++
+		count[cd.v.k]++
+	}
+	if bad >= 0 {
+		return nil, &dateColumnError{bad, fmt.Errorf("%w (accepted forms: %s)", ErrBadDate, AcceptedDateForms), parsed}
+	}
+	major := cs[0].v.k
+	for k, n := range count {
+		if n > count[major] || (n == count[major] && k < major) {
+			major = k
+		}
+	}
+	for i, c := range cs {
+		if c.v.k != major {
+			return nil, &dateColumnError{i, wrapf(ErrBadDate, "a %s date among %s dates", kindNames[c.v.k], kindNames[major]), parsed}
+		}
+	}
+	var notes []dateNote
+	// Day-month order of numeric triples.
+	order := o.order
+	firstM, firstD, firstAmb := -1, -1, -1
+	for i, c := range cs {
+		if !c.amb {
+			continue
+		}
+		switch c.order {
+		case 'm':
+			if firstM < 0 {
+				firstM = i
+			}
+		case 'd':
+			if firstD < 0 {
+				firstD = i
+			}
+		}
+		if firstAmb < 0 {
+			firstAmb = i
+		}
+	}
+	if firstAmb >= 0 {
+		switch {
+		case order == 'd' && firstM >= 0:
+			return nil, &dateColumnError{firstM, wrapf(ErrBadDate, "not a day/month/year date (date_format dmy)"), parsed}
+		case order == 'm' && firstD >= 0:
+			return nil, &dateColumnError{firstD, wrapf(ErrBadDate, "not a month/day/year date (date_format mdy)"), parsed}
+		case order != 0:
+		case firstM >= 0 && firstD >= 0:
+			return nil, &dateColumnError{max(firstM, firstD), wrapf(ErrBadDate,
+				"the column mixes day/month/year (%q) and month/day/year (%q) dates", cells[firstD], cells[firstM]), parsed}
+		case firstM >= 0:
+			order = 'm'
+			notes = append(notes, dateNote{-1, "date-format", fmt.Sprintf("dates read as month/day/year (%q has no other reading)", cells[firstM])})
+		case firstD >= 0:
+			order = 'd'
+			notes = append(notes, dateNote{-1, "date-format", fmt.Sprintf("dates read as day/month/year (%q has no other reading)", cells[firstD])})
+		case cs[firstAmb].sep == '.':
+			order = 'd'
+			notes = append(notes, dateNote{-1, "date-format", "dotted dates read as day.month.year (set date_format (--date-format) to mdy for month.day.year)"})
+		default:
+			dD, eD := finishDates(cells, resolveOrder(cs, 'd'))
+			dM, eM := finishDates(cells, resolveOrder(cs, 'm'))
+			regD := eD == nil && dD.freq != Irregular && len(dD.gaps) == 0
+			regM := eM == nil && dM.freq != Irregular && len(dM.gaps) == 0
+			if regD != regM {
+				dc, reading, other := dD, "day/month/year", "month/day/year"
+				if regM {
+					dc, reading, other = dM, "month/day/year", "day/month/year"
+				}
+				dc.notes = append(notes, dateNote{-1, "date-format", fmt.Sprintf(
+					"dates such as %q read as %s: the only order that gives regular dates (as %s they would not be); set date_format (--date-format) to override",
+					cells[firstAmb], reading, other)})
+				return dc, nil
+			}
+			return nil, &dateColumnError{firstAmb, wrapf(ErrAmbiguousDate,
+				"this and the other dates of the column read as day/month/year or as month/day/year: set date_format (--date-format) to dmy or mdy"), parsed}
+		}
+	}
+	vs := resolveOrder(cs, order)
+	dc, e := finishDates(cells, vs)
+	if e != nil {
+		e.parsed = parsed
+		return nil, e
+	}
+	dc.notes = append(notes, dc.notes...)
+	return dc, nil
+}
+
+// resolveOrder returns the dates of cs with numeric triples read in order
+// ('d' or 'm') and two-digit years given a century: the first year in
+// 1969-2068 unless the column would then end after 2068, later years moving
+// on a century whenever the two digits fall.
+func resolveOrder(cs []cellDate, order byte) []dval {
+	vs := make([]dval, len(cs))
+	var yy []int
+	for i, c := range cs {
+		v := c.v
+		if c.amb {
+			if order == 'd' {
+				v.m, v.d = v.d, v.m
+			}
+			v.k = kDay
 		}
 		vs[i] = v
-		maxSub = max(maxSub, v.m)
+		if c.yy {
+			yy = append(yy, i)
+		}
+	}
+	if len(yy) > 0 {
+		rel := make([]int, len(yy))
+		off := 0
+		for j, i := range yy {
+			if j > 0 && vs[i].y < vs[yy[j-1]].y {
+				off += 100
+			}
+			rel[j] = vs[i].y + off
+		}
+		base := 2000
+		if rel[0] >= 69 || rel[len(rel)-1] > 68 {
+			base = 1900
+		}
+		for j, i := range yy {
+			vs[i].y = base + rel[j]
+		}
+	}
+	return vs
+}
+
+// gcd of two positive integers.
+func gcd(a, b int) int {
+	for b != 0 {
+		a, b = b, a%b
+	}
+	return a
+}
+
+// finishDates resolves "2009:1" forms, reduces daily dates on one day of
+// the month, checks order and detects the frequency and gaps.
+func finishDates(cells []string, vs []dval) (*dateColumn, *dateColumnError) {
+	for i, v := range vs {
+		if !valid(v) {
+			return nil, &dateColumnError{i, fmt.Errorf("%w (accepted forms: %s)", ErrBadDate, AcceptedDateForms), 0}
+		}
 	}
 	k := vs[0].k
+	var notes []dateNote
 	if k == kColon {
+		maxSub := 0
+		for _, v := range vs {
+			maxSub = max(maxSub, v.m)
+		}
 		k = kMonth
 		if maxSub <= 4 {
 			k = kQuarter
@@ -291,6 +598,13 @@ func parseDates(cells []string) (*dateColumn, *dateColumnError) {
 			ends = ends && v.d == daysIn(v.y, v.m)
 		}
 		if same || ends {
+			if len(vs) > 1 && !(same && vs[0].d == 1) {
+				what := "the month's last day"
+				if same {
+					what = fmt.Sprintf("day %d of the month", vs[0].d)
+				}
+				notes = append(notes, dateNote{-1, "date-period", fmt.Sprintf("daily dates all on %s read as periods (months, quarters or years from their spacing)", what)})
+			}
 			k = kMonth
 			for i := range vs {
 				vs[i].k, vs[i].d = kMonth, 0
@@ -301,23 +615,23 @@ func parseDates(cells []string) (*dateColumn, *dateColumnError) {
 	for i, v := range vs {
 		ord[i] = ordinal(v)
 		if i > 0 && ord[i] <= ord[i-1] {
-			return nil, &dateColumnError{i, wrapf(ErrDateOrder, "%q does not come after %q", cells[i], cells[i-1])}
+			return nil, &dateColumnError{i, wrapf(ErrDateOrder, "%q does not come after %q", cells[i], cells[i-1]), 0}
 		}
 	}
-	// Monthly positions three or twelve months apart are quarters or years.
+	// Monthly positions a multiple of three or twelve months apart (every
+	// month in the same place of its quarter or year) are quarters or years.
 	if k == kMonth && len(vs) > 1 {
-		step := ord[1] - ord[0]
-		all := step == 3 || step == 12
-		for i := 2; i < len(ord) && all; i++ {
-			all = ord[i]-ord[i-1] == step
+		g := 0
+		for i := 1; i < len(ord); i++ {
+			g = gcd(ord[i]-ord[i-1], g)
 		}
-		if all && step == 3 {
+		if g == 3 || g == 6 || g == 9 {
 			k = kQuarter
 			for i := range vs {
 				vs[i] = dval{k: kQuarter, y: vs[i].y, m: (vs[i].m-1)/3 + 1}
 				ord[i] = ordinal(vs[i])
 			}
-		} else if all && step == 12 {
+		} else if g%12 == 0 {
 			k = kYear
 			for i := range vs {
 				vs[i] = dval{k: kYear, y: vs[i].y}
@@ -325,17 +639,47 @@ func parseDates(cells []string) (*dateColumn, *dateColumnError) {
 			}
 		}
 	}
-	dc := &dateColumn{kind: k, labels: make([]string, len(vs))}
+	dc := &dateColumn{kind: k, labels: make([]string, len(vs)), notes: notes}
 	for i, v := range vs {
 		dc.labels[i] = label(v)
 	}
-	dc.freq, dc.warn = frequency(k, vs, ord)
+	dc.freq, dc.gaps, dc.warn = frequency(k, vs, ord)
 	return dc, nil
 }
 
-// frequency detects the frequency from the spacing of ordinals.
-func frequency(k kind, vs []dval, ord []int) (string, string) {
+// ordLabel is the canonical label of ordinal o of kind k.
+func ordLabel(k kind, o int) string {
+	switch k {
+	case kYear:
+		return label(dval{k: kYear, y: o})
+	case kQuarter:
+		return label(dval{k: kQuarter, y: o / 4, m: o%4 + 1})
+	case kMonth:
+		return label(dval{k: kMonth, y: o / 12, m: o%12 + 1})
+	}
+	return time.Unix(int64(o)*86400, 0).UTC().Format("2006-01-02")
+}
+
+// gapsOf lists the runs of missing periods between ordinals step apart.
+func gapsOf(k kind, ord []int, step int) []gap {
+	var gs []gap
+	for i := 1; i < len(ord); i++ {
+		if d := ord[i] - ord[i-1]; d > step {
+			gs = append(gs, gap{i: i, missing: d/step - 1, first: ordLabel(k, ord[i-1]+step), last: ordLabel(k, ord[i]-step)})
+		}
+	}
+	return gs
+}
+
+// frequency detects the frequency from the spacing of ordinals: annual,
+// quarterly, monthly and weekly data may have calendar gaps (returned);
+// daily data are calendar or business days, anything else is irregular
+// (warn names the first gap).
+func frequency(k kind, vs []dval, ord []int) (string, []gap, string) {
 	unit := map[kind]string{kYear: Annual, kQuarter: Quarterly, kMonth: Monthly, kDay: Daily}[k]
+	if k != kDay {
+		return unit, gapsOf(k, ord, 1), ""
+	}
 	gap := -1
 	for i := 1; i < len(ord); i++ {
 		if ord[i]-ord[i-1] != 1 {
@@ -344,40 +688,98 @@ func frequency(k kind, vs []dval, ord []int) (string, string) {
 		}
 	}
 	if gap < 0 {
-		return unit, ""
+		return Daily, nil, ""
 	}
-	if k == kDay {
-		weekly := true
-		for i := 1; i < len(ord) && weekly; i++ {
-			weekly = ord[i]-ord[i-1] == 7
+	weekly := len(ord) > 1
+	for i := 1; i < len(ord) && weekly; i++ {
+		weekly = (ord[i]-ord[i-1])%7 == 0
+	}
+	if weekly {
+		return Weekly, gapsOf(k, ord, 7), ""
+	}
+	business, ones := true, 0
+	for i := range ord {
+		wd := time.Date(vs[i].y, time.Month(vs[i].m), vs[i].d, 0, 0, 0, 0, time.UTC).Weekday()
+		if wd == time.Saturday || wd == time.Sunday {
+			business = false
+			break
 		}
-		if weekly {
-			return Weekly, ""
-		}
-		business, ones := true, 0
-		for i := range ord {
-			wd := time.Date(vs[i].y, time.Month(vs[i].m), vs[i].d, 0, 0, 0, 0, time.UTC).Weekday()
-			if wd == time.Saturday || wd == time.Sunday {
+		if i > 0 {
+			st := ord[i] - ord[i-1]
+			if st > 5 {
 				business = false
 				break
 			}
-			if i > 0 {
-				st := ord[i] - ord[i-1]
-				if st > 5 {
-					business = false
-					break
-				}
-				if st == 1 {
-					ones++
-				}
+			if st == 1 {
+				ones++
 			}
 		}
-		if business && 2*ones >= len(ord)-1 {
-			return Daily, ""
+	}
+	if business && 2*ones >= len(ord)-1 {
+		return Daily, nil, ""
+	}
+	return Irregular, nil, fmt.Sprintf("dates are irregular (%s data with a gap between %s and %s)",
+		unit, label(vs[gap-1]), label(vs[gap]))
+}
+
+// seriesGaps lists the calendar gaps of canonical date labels of a regular
+// frequency (annual, quarterly, monthly, weekly); nil for other frequencies.
+func seriesGaps(dates []string, freq string) []gap {
+	k, step := kNone, 1
+	switch freq {
+	case Annual:
+		k = kYear
+	case Quarterly:
+		k = kQuarter
+	case Monthly:
+		k = kMonth
+	case Weekly:
+		k, step = kDay, 7
+	default:
+		return nil
+	}
+	ord := make([]int, len(dates))
+	for i, d := range dates {
+		v, ok := parseDate(d)
+		if !ok || v.k != k {
+			return nil
+		}
+		ord[i] = ordinal(v)
+	}
+	return gapsOf(k, ord, step)
+}
+
+// describeGaps lists gaps in words: "1958-06, 1958-10..1958-11 (3 missing
+// months in 2 gaps)"; at most ten gaps are listed.
+func describeGaps(gs []gap, freq string) string {
+	unit := map[string]string{Annual: "years", Quarterly: "quarters", Monthly: "months", Weekly: "weeks"}[freq]
+	var b strings.Builder
+	total := 0
+	for j, g := range gs {
+		total += g.missing
+		if j < 10 {
+			if j > 0 {
+				b.WriteString(", ")
+			}
+			b.WriteString(g.first)
+			if g.missing > 1 {
+				b.WriteString("..")
+				b.WriteString(g.last)
+			}
 		}
 	}
-	return Irregular, fmt.Sprintf("dates are irregular (%s data with a gap between %s and %s)",
-		unit, label(vs[gap-1]), label(vs[gap]))
+	if len(gs) > 10 {
+		fmt.Fprintf(&b, " and %d more gaps", len(gs)-10)
+	}
+	if total == 1 {
+		unit = strings.TrimSuffix(unit, "s")
+	}
+	fmt.Fprintf(&b, " (%d missing %s in %d gap", total, unit, len(gs))
+	if len(gs) > 1 {
+		b.WriteString("s")
+	}
+	b.WriteString(")")
+	return b.String()
 }
 
 // kindOf is the kind of the canonical labels of a frequency; for irregular

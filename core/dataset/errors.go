@@ -11,6 +11,11 @@ var (
 	ErrNoSeries        = errors.New("no numeric series")
 	ErrBadNumber       = errors.New("not a number")
 	ErrBadDate         = errors.New("not a date")
+	ErrAmbiguousDate   = errors.New("ambiguous dates")
+	ErrGap             = errors.New("calendar gap")
+	ErrExtraCells      = errors.New("more cells than the header")
+	ErrEncoding        = errors.New("unsupported text encoding")
+	ErrQuote           = errors.New("unbalanced quote")
 	ErrDateOrder       = errors.New("dates are not increasing")
 	ErrUnknownColumn   = errors.New("unknown column")
 	ErrNotContiguous   = errors.New("rows of one id are not contiguous")
@@ -31,13 +36,18 @@ type ParseError struct {
 	ColumnName string
 	// Value is the offending cell text, if any.
 	Value string
-	Err   error
+	// ID is the series id of a long or JSON Lines record, if known.
+	ID  string
+	Err error
 }
 
 func (e *ParseError) Error() string {
 	s := ""
 	if e.File != "" {
 		s = e.File + ": "
+	}
+	if e.ID != "" {
+		s += fmt.Sprintf("id %q: ", e.ID)
 	}
 	if e.Row > 0 {
 		s += fmt.Sprintf("line %d: ", e.Row)

@@ -94,7 +94,11 @@ func FuzzParse(f *testing.F) {
 			w.Write(row)
 		}
 		w.Flush()
-		back, err := Parse("back", buf.Bytes(), nil)
+		var bopt *Options
+		if tb.Dates != nil {
+			bopt = &Options{DateColumn: "date"}
+		}
+		back, err := Parse("back", buf.Bytes(), bopt)
 		if err != nil {
 			t.Fatalf("re-parse: %v\n%s", err, buf.String())
 		}

@@ -50,7 +50,7 @@ func TestParseFixtures(t *testing.T) {
 			nanAt: []val{{"x", 0, 0}, {"x", 1, 0}, {"x", 2, 0}, {"x", 3, 0}, {"x", 4, 0}, {"x", 5, 0}, {"x", 6, 0}, {"x", 7, 0}, {"x", 8, 0}}},
 		{file: "bad_cells.csv", delim: ',', dateCol: "date", freq: Monthly,
 			first: "2000-01", last: "2000-04", series: []string{"good"}, skipped: []string{"text", "malformed"},
-			vals: []val{{"good", 3, 1.8}}, warnSubstr: `line 4: column 4 ("malformed")`},
+			vals: []val{{"good", 3, 1.8}}, warnSubstr: `line 4, column 4 ("malformed")`},
 	}
 	for _, c := range cases {
 		t.Run(c.file, func(t *testing.T) {
@@ -99,8 +99,8 @@ func TestParseFixtures(t *testing.T) {
 					t.Errorf("%s[%d] = %v, want missing", v.series, v.row, got)
 				}
 			}
-			if c.warnSubstr != "" && !strings.Contains(strings.Join(tb.Warnings, "\n"), c.warnSubstr) {
-				t.Errorf("warnings %q lack %q", tb.Warnings, c.warnSubstr)
+			if c.warnSubstr != "" && !strings.Contains(strings.Join(tb.Messages(), "\n"), c.warnSubstr) {
+				t.Errorf("warnings %q lack %q", tb.Messages(), c.warnSubstr)
 			}
 		})
 	}
@@ -133,8 +133,8 @@ func TestParseOpenData(t *testing.T) {
 		if s.Name != c.series || s.Values[0] != c.v0 || s.Values[tb.Rows-1] != c.vN {
 			t.Errorf("%s: %s = %v..%v", c.file, s.Name, s.Values[0], s.Values[tb.Rows-1])
 		}
-		if len(tb.Warnings) != 0 {
-			t.Errorf("%s: warnings %v", c.file, tb.Warnings)
+		if len(tb.Messages()) != 0 {
+			t.Errorf("%s: warnings %v", c.file, tb.Messages())
 		}
 	}
 }
@@ -208,7 +208,7 @@ func TestParseDatesFrequency(t *testing.T) {
 		warn   bool
 	}{
 		{"annual", []string{"2000", "2001", "2002"}, Annual, "2000|2002", false},
-		{"annual gap", []string{"2000", "2001", "2003"}, Irregular, "2000|2003", true},
+		{"annual gap", []string{"2000", "2001", "2003"}, Annual, "2000|2003", false},
 		{"quarterly", []string{"2000Q4", "2001Q1"}, Quarterly, "2000Q4|2001Q1", false},
 		{"colon quarterly", []string{"2000:3", "2000:4", "2001:1"}, Quarterly, "2000Q3|2001Q1", false},
 		{"colon monthly", []string{"2000:11", "2000:12", "2001:01"}, Monthly, "2000-11|2001-01", false},
@@ -222,11 +222,11 @@ func TestParseDatesFrequency(t *testing.T) {
 		{"calendar daily", []string{"2009-03-06", "2009-03-07", "2009-03-08", "2009-03-09"}, Daily, "2009-03-06|2009-03-09", false},
 		{"business daily", []string{"2009-03-05", "2009-03-06", "2009-03-09", "2009-03-10"}, Daily, "2009-03-05|2009-03-10", false},
 		{"irregular days", []string{"2009-03-05", "2009-03-21", "2009-04-02"}, Irregular, "2009-03-05|2009-04-02", true},
-		{"monthly gap", []string{"2009-01", "2009-02", "2009-05"}, Irregular, "2009-01|2009-05", true},
+		{"monthly gap", []string{"2009-01", "2009-02", "2009-05"}, Monthly, "2009-01|2009-05", false},
 		{"dotted", []string{"16.03.2009", "17.03.2009", "18.03.2009"}, Daily, "2009-03-16|2009-03-18", false},
 	}
 	for _, c := range cases {
-		dc, e := parseDates(c.cells)
+		dc, e := parseDates(c.cells, dateOpts{})
 		if e != nil {
 			t.Errorf("%s: %v at %d", c.name, e.err, e.i)
 			continue
@@ -249,7 +249,7 @@ func TestParseDatesFrequency(t *testing.T) {
 		{"missing", []string{"2000-01", ""}, 1, ErrBadDate},
 	}
 	for _, c := range bad {
-		_, e := parseDates(c.cells)
+		_, e := parseDates(c.cells, dateOpts{})
 		if e == nil || e.i != c.at || !errors.Is(e.err, c.err) {
 			t.Errorf("%s: got %+v, want %v at %d", c.name, e, c.err, c.at)
 		}
@@ -334,7 +334,7 @@ func TestDecimalDetection(t *testing.T) {
 		{"tab ambiguous", "t\ty\n1\t1,234\n2\t2\n", false, 1234, true},
 		{"tab comma", "t\ty\n1\t0,5\n2\t2\n", true, 0.5, false},
 		{"tab point grouped", "t\ty\n1\t1,234.5\n2\t2\n", false, 1234.5, false},
-		{"mixed marks", "t;y\n1;1,5\n2;2,5\n3;3.5\n", true, 1.5, true},
+		{"mixed marks", "d;x;y\n2001;1;1,5\n2002;3;2,5\n2003;2;3.5\n", true, 1.5, true},
 		{"one pasted column, comma", "y\n1,5\n2,25\n", true, 1.5, false},
 		{"one column, point", "y\n1.5\n2.25\n", false, 1.5, false},
 	}
@@ -342,7 +342,7 @@ func TestDecimalDetection(t *testing.T) {
 		tb, err := Parse("x", []byte(c.data), nil)
 		if c.name == "mixed marks" {
 			// 3.5 is then not a number with a decimal comma: column skipped.
-			if err != nil || len(tb.Skipped) != 1 || tb.Skipped[0].ColumnName != "y" || tb.Skipped[0].Row != 4 || !strings.Contains(tb.Warnings[0], "mix") {
+			if err != nil || len(tb.Skipped) != 1 || tb.Skipped[0].ColumnName != "y" || tb.Skipped[0].Row != 4 || !strings.Contains(tb.Messages()[0], "mix") {
 				t.Errorf("%s: err %v table %+v", c.name, err, tb)
 			}
 			continue
@@ -352,8 +352,12 @@ func TestDecimalDetection(t *testing.T) {
 			continue
 		}
 		y := tb.Series[len(tb.Series)-1]
-		if tb.DecimalComma != c.comma || y.Values[0] != c.want || (len(tb.Warnings) > 0) != c.warn {
-			t.Errorf("%s: comma %v y0 %v warnings %q", c.name, tb.DecimalComma, y.Values[0], tb.Warnings)
+		guessed := false
+		for _, n := range tb.Notes {
+			guessed = guessed || n.Kind == "decimal-mark" && (strings.Contains(n.Message, "either") || strings.Contains(n.Message, "mix"))
+		}
+		if tb.DecimalComma != c.comma || y.Values[0] != c.want || guessed != c.warn {
+			t.Errorf("%s: comma %v y0 %v warnings %q", c.name, tb.DecimalComma, y.Values[0], tb.Messages())
 		}
 	}
 }
@@ -451,11 +455,15 @@ func TestParseColumnsAndDateDetection(t *testing.T) {
 		{"price,y\n2001,1\n2002,2\n", "price"},
 		{"price,y\n2001,1\n2005,2\n", ""},
 		{"y,price\n1,2001\n2,2002\n", ""},
-		{"y,Year\n1,2001\n2,2002\n", "Year"},
-		{"v,observation_date\n1,2001-01-01\n2,2001-01-02\n", "observation_date"},
+		{"y,Year\n5,2001\n3,2002\n", "Year"},
+		{"v,observation_date\n4,2001-01-01\n2,2001-01-02\n", "observation_date"},
 	} {
 		tb, err := Parse("p", []byte(c.data), nil)
-		if err != nil || tb.DateColumn != c.dateCol {
+		if err != nil {
+			t.Errorf("%q: %v", c.data, err)
+			continue
+		}
+		if tb.DateColumn != c.dateCol {
 			t.Errorf("%q: date column %q err %v, want %q", c.data, tb.DateColumn, err, c.dateCol)
 		}
 	}

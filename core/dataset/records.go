@@ -10,6 +10,7 @@ import (
 type record struct {
 	line   int
 	fields []string
+	title  []string // title rows skipped above this header row (workbooks)
 }
 
 // recordReader splits delimited text into records, accepting LF, CRLF and CR
@@ -23,6 +24,8 @@ type recordReader struct {
 	pos   int
 	err   error // sticky read error (io.EOF at end)
 	bom   bool  // BOM check done
+	// keepBlank makes next return blank lines as records with nil fields.
+	keepBlank bool
 }
 
 func newRecordReader(r io.Reader, delim byte) *recordReader {
@@ -114,7 +117,36 @@ func (r *recordReader) readLine() (string, bool, error) {
 	}
 }
 
-// next returns the next non-blank record, or io.EOF.
+// quoteState follows the quoting of splitFields across one line: a quote
+// opens a quoted field only at the start of a field (after spaces), "" inside
+// quotes is a quote, and a quote elsewhere is an ordinary character. It
+// returns whether a quoted field is still open at the end of the line.
+func quoteState(s string, delim byte, inQ bool) bool {
+	start := !inQ
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch {
+		case inQ && c == '"' && i+1 < len(s) && s[i+1] == '"':
+			i++
+		case inQ && c == '"':
+			inQ = false
+		case inQ:
+		case c == delim:
+			start = true
+		case c == '"' && start:
+			inQ, start = true, false
+		case c == ' ' || c == '\t':
+		default:
+			start = false
+		}
+	}
+	return inQ
+}
+
+// next returns the next non-blank record (or, with keepBlank, a blank
+// record with nil fields), or io.EOF. A quoted field that is still open at
+// the end of the input is a *ParseError wrapping ErrQuote naming the line
+// where the record began.
 func (r *recordReader) next() (record, error) {
 	for {
 		s, ok, err := r.readLine()
@@ -125,19 +157,29 @@ func (r *recordReader) next() (record, error) {
 			return record{}, io.EOF
 		}
 		start := r.line
-		if strings.IndexByte(s, '"') >= 0 {
-			for strings.Count(s, `"`)%2 == 1 {
+		if strings.IndexByte(s, '"') >= 0 && quoteState(s, r.delim, false) {
+			var b strings.Builder
+			b.WriteString(s)
+			inQ := true
+			for inQ {
 				more, ok, err := r.readLine()
 				if err != nil {
 					return record{}, err
 				}
 				if !ok {
-					break
+					return record{}, &ParseError{Row: start, Err: wrapf(ErrQuote,
+						"a quoted cell opened on line %d is never closed (the rest of the file would be one cell); remove the stray quote or double it", start)}
 				}
-				s += "\n" + more
+				b.WriteByte('\n')
+				b.WriteString(more)
+				inQ = quoteState(more, r.delim, true)
 			}
+			s = b.String()
 		}
 		if trimSpace(s) == "" {
+			if r.keepBlank {
+				return record{line: start}, nil
+			}
 			continue
 		}
 		return record{line: start, fields: splitFields(s, r.delim)}, nil
@@ -181,6 +223,50 @@ func splitFields(s string, delim byte) []string {
 		}
 	}
 	return append(out, b.String())
+}
+
+// headerLike reports whether a record has a cell that is text (not a
+// number, a date or a missing marker).
+func headerLike(fields []string) bool {
+	for _, f := range fields {
+		f = trimSpace(f)
+		if IsMissing(f) {
+			continue
+		}
+		if _, ok := parseNumber(f, decPoint); ok {
+			continue
+		}
+		if _, ok := parseNumber(f, decComma); ok {
+			continue
+		}
+		if _, ok := parseDate(f); ok {
+			continue
+		}
+		return true
+	}
+	return false
+}
+
+// consistentDelimiter is the first candidate whose count is the same
+// non-zero number on every line.
+func consistentDelimiter(lines []string, cands []byte) (byte, bool) {
+	for _, c := range cands {
+		h := countOutside(lines[0], c)
+		if h == 0 {
+			continue
+		}
+		same := true
+		for _, l := range lines[1:] {
+			if countOutside(l, c) != h {
+				same = false
+				break
+			}
+		}
+		if same {
+			return c, true
+		}
+	}
+	return 0, false
 }
 
 // countOutside counts delim outside double quotes in one line.
@@ -238,21 +324,22 @@ func detectDelimiter(lines []string) byte {
 	if len(lines) == 0 {
 		return '\t'
 	}
-	for _, c := range cands {
-		h := countOutside(lines[0], c)
-		if h == 0 {
-			continue
+	// Title lines above the header (no delimiter at all, while the lines
+	// below agree on one) are passed over.
+	for k := 1; k <= 3 && k+2 <= len(lines); k++ {
+		none := true
+		for _, c := range cands {
+			none = none && countOutside(lines[k-1], c) == 0
 		}
-		same := true
-		for _, l := range lines[1:] {
-			if countOutside(l, c) != h {
-				same = false
-				break
-			}
+		if !none {
+			break
 		}
-		if same {
-			return c
+		if d, ok := consistentDelimiter(lines[k:], cands); ok && headerLike(splitFields(lines[k], d)) {
+			return d
 		}
+	}
+	if d, ok := consistentDelimiter(lines, cands); ok {
+		return d
 	}
 	// A single column: no delimiter splits it, and a tab keeps decimal commas
 	// inside the cell for decimal-mark detection.

@@ -65,6 +65,16 @@ func Transform(dst, y []float64, kind string) ([]float64, error) {
 	return dst, nil
 }
 
+// GapRules lists the accepted values of schema.Settings.Gaps ("" is
+// "stop").
+var GapRules = []string{"", "stop", "keep", "split"}
+
+// OptionsFor returns the reading options held in the settings (date column,
+// date format, sheet); the CLI, the batch mode and the page all read with it.
+func OptionsFor(s schema.Settings) *Options {
+	return &Options{DateColumn: s.DateColumn, DateFormat: s.DateFormat, Sheet: s.Sheet}
+}
+
 // MinObs is the fewest observations Select keeps for a series.
 const MinObs = 2
 
@@ -75,7 +85,9 @@ const MinObs = 2
 // names, To the last at or before its end), the transform s.Transform
 // (differences drop the first observation(s) of the range, and the dates stay
 // aligned with the values), then leading and trailing missing values are
-// trimmed. A missing value left inside the sample is an error for that series
+// trimmed (with a note), then calendar gaps are handled by s.Gaps (see
+// schema.Settings.Gaps; the default stops the series with ErrGap naming the
+// missing periods). A missing value left inside the sample is an error for that series
 // (ErrInteriorMissing with its row): nothing is interpolated. Each returned
 // Series owns its Values and Dates; First is the table row of Values[0].
 // Errors that concern every series (unknown date column, bad range) have
@@ -146,9 +158,16 @@ func Select(t *Table, s schema.Settings) (series []Series, errs []SeriesError) {
 			picked = append(picked, p)
 		}
 	}
+	okGaps := false
+	for _, g := range GapRules {
+		okGaps = okGaps || g == s.Gaps
+	}
+	if !okGaps {
+		return nil, []SeriesError{{Err: wrapf(ErrGap, "gaps %q: want stop, keep or split", s.Gaps)}}
+	}
 	lag := map[string]int{"diff": 1, "logdiff": 1, "diff2": 2}[s.Transform]
 	for _, p := range picked {
-		out, e := selectOne(t, p, a, b, s.Transform, lag)
+		out, e := selectOne(t, p, a, b, s.Transform, lag, s.Gaps)
 		if e != nil {
 			errs = append(errs, *e)
 			continue
@@ -159,7 +178,7 @@ func Select(t *Table, s schema.Settings) (series []Series, errs []SeriesError) {
 }
 
 // selectOne cuts rows a..b of one series, transforms and trims it.
-func selectOne(t *Table, p *Series, a, b int, kind string, lag int) (Series, *SeriesError) {
+func selectOne(t *Table, p *Series, a, b int, kind string, lag int, gaps string) (Series, *SeriesError) {
 	base := p.First
 	if base < 1 {
 		base = 1
@@ -175,6 +194,65 @@ func selectOne(t *Table, p *Series, a, b int, kind string, lag int) (Series, *Se
 	}
 	if lo > hi {
 		return Series{}, fail(0, wrapf(ErrTooShort, "no observations in the sample"))
+	}
+	notes := append([]Note(nil), p.Notes...)
+	line := func(row int) int { // file line of table row
+		if row >= 1 && row <= len(t.Lines) {
+			return t.Lines[row-1]
+		}
+		return 0
+	}
+	// Leading and trailing missing values of the raw window.
+	i0, j0 := lo, hi
+	for i0 <= j0 && math.IsNaN(p.Values[i0-base]) {
+		i0++
+	}
+	for j0 >= i0 && math.IsNaN(p.Values[j0-base]) {
+		j0--
+	}
+	if i0 > j0 {
+		return Series{}, fail(0, wrapf(ErrTooShort, "no values in the sample"))
+	}
+	if i0 > lo || j0 < hi {
+		msg := fmt.Sprintf("%d leading and %d trailing rows without a value left out", i0-lo, hi-j0)
+		if p.Dates != nil {
+			msg += fmt.Sprintf(": the series runs from %s to %s", p.Dates[i0-base], p.Dates[j0-base])
+		}
+		notes = append(notes, Note{Kind: "trimmed", Row: line(i0), Column: p.Column, ColumnName: p.Name, Message: msg})
+	}
+	lo, hi = i0, j0
+	if p.Dates != nil {
+		if gs := seriesGaps(p.Dates[lo-base:hi-base+1], p.Frequency); len(gs) > 0 {
+			desc := describeGaps(gs, p.Frequency)
+			switch gaps {
+			case "", "stop":
+				r := lo + gs[0].i
+				return Series{}, fail(r, wrapf(ErrGap, "the %s dates skip %s: the tests would treat non-adjacent periods as adjacent; set gaps (--gaps) to split (test the longest stretch without gaps), keep (test the observations as if consecutive) or choose from/to inside one stretch", p.Frequency, desc))
+			case "keep":
+				notes = append(notes, Note{Kind: "gap-kept", Row: line(lo + gs[0].i), Column: p.Column, ColumnName: p.Name,
+					Message: "tested across calendar gaps (gaps = keep): the observations on either side of " + desc + " are treated as adjacent"})
+			case "split":
+				// Stretches: [lo, lo+g0.i-1], [lo+g0.i, lo+g1.i-1], ...
+				bestLo, bestHi := 0, -1
+				start := lo
+				for k := 0; k <= len(gs); k++ {
+					end := hi
+					if k < len(gs) {
+						end = lo + gs[k].i - 1
+					}
+					if end-start >= bestHi-bestLo {
+						bestLo, bestHi = start, end
+					}
+					if k < len(gs) {
+						start = lo + gs[k].i
+					}
+				}
+				notes = append(notes, Note{Kind: "gap-split", Row: line(bestLo), Column: p.Column, ColumnName: p.Name,
+					Message: fmt.Sprintf("calendar gaps %s: the longest stretch without gaps is tested (gaps = split), %s to %s, %d of %d observations",
+						desc, p.Dates[bestLo-base], p.Dates[bestHi-base], bestHi-bestLo+1, hi-lo+1)})
+				lo, hi = bestLo, bestHi
+			}
+		}
 	}
 	win := p.Values[lo-base : hi-base+1]
 	v, err := Transform(nil, win, kind)
@@ -198,7 +276,7 @@ func selectOne(t *Table, p *Series, a, b int, kind string, lag int) (Series, *Se
 	if j-i < MinObs {
 		return Series{}, fail(0, wrapf(ErrTooShort, "%d observations in the sample", j-i))
 	}
-	out := Series{Name: p.Name, Column: p.Column, Frequency: p.Frequency, First: first + i}
+	out := Series{Name: p.Name, Column: p.Column, Frequency: p.Frequency, First: first + i, Notes: notes}
 	out.Values = append([]float64(nil), v[i:j]...)
 	if p.Dates != nil {
 		out.Dates = append([]string(nil), p.Dates[first+i-base:first+j-base]...)

@@ -36,6 +36,24 @@ type Source struct {
 	Rows       int    `json:"rows"`
 	DateColumn string `json:"date_column,omitempty"`
 	Frequency  string `json:"frequency,omitempty"`
+	// Notes lists everything the reader decided or changed in the input
+	// (columns renamed, decimal mark guessed, blank rows, index columns,
+	// calendar gaps, sheets not read ...).
+	Notes []Note `json:"notes,omitempty"`
+}
+
+// Note is one finding of the reader about the input.
+type Note struct {
+	// Kind names the finding: decimal-mark, thousands, renamed, short-row,
+	// blank-row, skipped-column, empty-column, index-column, not-years,
+	// date-format, date-period, irregular, gap, gap-kept, gap-split,
+	// trimmed, header-row, sheet-ignored, encoding, sorted, formula.
+	Kind    string `json:"kind"`
+	Message string `json:"message"`
+	// Row is the 1-based line of the input file (sheet row for a workbook)
+	// and Column the column's header, when the note is about one.
+	Row    int    `json:"row,omitempty"`
+	Column string `json:"column,omitempty"`
 }
 
 // Series is the result for one series.
@@ -54,6 +72,9 @@ type Series struct {
 	Errors []Error `json:"errors"`
 	// Warnings lists problems that did not stop the analysis.
 	Warnings []string `json:"warnings,omitempty"`
+	// Notes lists what the reader decided or changed for this series' column
+	// and what the input selection did (values trimmed, calendar gaps).
+	Notes []Note `json:"notes,omitempty"`
 }
 
 // Error is one failure, with context.

@@ -65,4 +65,21 @@ type Settings struct {
 	Transform string `json:"transform,omitempty"`
 	// DateColumn names the date column; empty: detected.
 	DateColumn string `json:"date_column,omitempty"`
+	// DateFormat fixes how ambiguous date cells are read: "dmy" or "mdy"
+	// (numeric dates with the year last, 31/01/2005 or 01/31/2005),
+	// "yyyymm", "yyyyq" or "yyyymmdd" (whole numbers such as 200501, 20051,
+	// 20050131 read as dates in any column); empty: detected from the whole
+	// column, and an ambiguous column is an error that asks for it.
+	DateFormat string `json:"date_format,omitempty"`
+	// Gaps says what to do with calendar gaps (missing periods) inside a
+	// series of annual, quarterly, monthly or weekly data: "stop" (default,
+	// empty): the series fails with an error naming the missing periods;
+	// "keep": the observations are tested as they are, one after the other,
+	// as if the gaps were not there (no values are inserted), with a note
+	// listing the gaps; "split": the longest stretch without gaps is tested
+	// (the latest when two are as long), with a note.
+	Gaps string `json:"gaps,omitempty"`
+	// Sheet names the .xlsx worksheet to read; empty: the first sheet
+	// holding data.
+	Sheet string `json:"sheet,omitempty"`
 }

@@ -219,7 +219,7 @@
   });
 
   // Settings that select the input (they change the preview).
-  const inputSettingIds = ['s-from', 's-to', 's-transform', 's-datecol'];
+  const inputSettingIds = ['s-from', 's-to', 's-transform', 's-datecol', 's-dateformat', 's-gaps', 's-sheet'];
   let previewTimer = 0;
   for (const id of inputSettingIds) {
     $(id).addEventListener('input', () => { clearTimeout(previewTimer); previewTimer = setTimeout(refreshPreview, 350); });
@@ -308,6 +308,9 @@
     put('to', txt('s-to'));
     put('transform', $('s-transform').value);
     put('date_column', txt('s-datecol'));
+    put('date_format', $('s-dateformat').value);
+    put('gaps', $('s-gaps').value);
+    put('sheet', txt('s-sheet'));
     if (inputOnly) return s;
     const cols = [...document.querySelectorAll('#preview input[data-col]')];
     if (cols.length && cols.some((c) => !c.checked)) {
@@ -468,12 +471,24 @@
     return rows;
   }
 
+  function noteText(n) {
+    const at = [n.row ? 'line ' + n.row : null, n.column ? 'column "' + n.column + '"' : null].filter(Boolean).join(', ');
+    return (at ? at + ': ' : '') + n.message;
+  }
+
   async function renderFindings(doc) {
     $('findings-h').hidden = false;
     $('findings-h').tabIndex = -1;
     $('exports').hidden = false;
     const out = $('results');
     out.replaceChildren();
+    // Notes on the input: everything the reader decided or changed.
+    const srcNotes = (doc.source && doc.source.notes) || [];
+    const sourceNotes = new Set(srcNotes.map((n) => n.kind + '\u0000' + n.message));
+    if (srcNotes.length) {
+      out.append(el('div', { class: 'card notes' }, el('p', { class: 'small' }, el('strong', null, 'Notes on the input')),
+        el('ul', { class: 'tight small muted' }, ...srcNotes.map((n) => el('li', null, noteText(n))))));
+    }
     for (let i = 0; i < doc.series.length; i++) {
       const sr = doc.series[i];
       const card = el('article', { class: 'card', 'aria-labelledby': 'series-h-' + i, 'data-series': sr.name });
@@ -501,6 +516,11 @@
       }
       if (sr.warnings && sr.warnings.length) {
         card.append(el('ul', { class: 'tight small muted' }, ...sr.warnings.map((w) => el('li', null, w))));
+      }
+      // The reader's notes on this series that the input notes above do not already hold.
+      const own = (sr.notes || []).filter((n) => !sourceNotes.has(n.kind + '\u0000' + n.message));
+      if (own.length) {
+        card.append(el('ul', { class: 'tight small muted notes' }, ...own.map((n) => el('li', null, noteText(n)))));
       }
       if (sr.results.length) {
         card.append(el('div', { class: 'table-wrap' }, el('table', { class: 'results' },

@@ -20,7 +20,7 @@ type Preview struct {
 	LastDate     string   `json:"last_date,omitempty"`
 	Delimiter    string   `json:"delimiter,omitempty"`
 	DecimalComma bool     `json:"decimal_comma"`
-	Warnings     []string `json:"warnings"`
+	Warnings     []string `json:"warnings"` // the reader's notes, one line each
 	// Series describes every numeric column as read.
 	Series []ColumnPreview `json:"series"`
 	// Selected describes what the analysis would use under the settings.
@@ -71,7 +71,7 @@ func Inspect(name string, data []byte, settings string) string {
 
 // readTable reads data the way battery.AnalyzeText does.
 func readTable(name string, data []byte, s schema.Settings) (*dataset.Table, error) {
-	opt := &dataset.Options{DateColumn: s.DateColumn}
+	opt := dataset.OptionsFor(s)
 	if strings.HasSuffix(strings.ToLower(name), ".xlsx") {
 		return dataset.ReadXLSX(name, data, opt)
 	}
@@ -80,7 +80,7 @@ func readTable(name string, data []byte, s schema.Settings) (*dataset.Table, err
 
 func preview(t *dataset.Table, s schema.Settings) *Preview {
 	p := &Preview{Name: t.Name, Rows: t.Rows, DateColumn: t.DateColumn, Frequency: t.Frequency,
-		DecimalComma: t.DecimalComma, Warnings: append([]string{}, t.Warnings...),
+		DecimalComma: t.DecimalComma, Warnings: append([]string{}, t.Messages()...),
 		Series: []ColumnPreview{}, Selected: []SelectedPreview{}}
 	switch t.Delimiter {
 	case 0:
