@@ -23,6 +23,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
@@ -45,14 +46,32 @@ func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, err
 	var target []float64
 	trend := core.TrendConstant
 	if stationary {
-		out.stage.Method = "Bai & Perron (1998, 2003) on the levels of a stationary series; slope by a HAC t-ratio (Newey & West 1987, 1994)"
-		out.tstat = hacSlopeT(w.z)
-		out.trending = math.Abs(out.tstat) > zc
-		if out.trending {
-			trend = core.TrendLinear
+		out.stage.Method = "Bai & Perron (1998, 2003) on the levels of a stationary series; slope by a HAC t-ratio (Newey & West 1987, 1994) with the level breaks in the regression"
+		// Level breaks first: a level shift alone would make the slope
+		// look significant. The slope is then judged with them in the
+		// regression, and only a trending series is dated again with
+		// breaks in level and slope.
+		lvl, err := w.run(ctx, "bp", w.z, w.config(core.TrendConstant))
+		if err != nil {
+			return nil, err
 		}
+		var tbs []int
+		if lvl != nil && lvl.Reject {
+			for _, b := range lvl.Breaks {
+				tbs = append(tbs, b.Index)
+			}
+		}
+		out.tstat = hacSlopeT(w.z, tbs)
+		out.trending = math.Abs(out.tstat) > zc
+		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("slope HAC t = %.2f with %d level break(s) in the regression (%s at %g)", out.tstat, len(tbs), signif(out.trending), w.alpha))
+		if !out.trending {
+			if lvl != nil {
+				lvl.Variant = strings.TrimPrefix(lvl.Variant+", "+w.scaleWords(), ", ")
+			}
+			return w.finishBreaks(out, lvl, stationary, core.TrendConstant), nil
+		}
+		trend = core.TrendLinear
 		target = w.z
-		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("slope HAC t = %.2f (%s at %g)", out.tstat, signif(out.trending), w.alpha))
 	} else {
 		out.stage.Method = "Bai & Perron (1998, 2003) on the first difference of an integrated series (changes in drift); drift by a HAC t-ratio of the mean difference (Newey & West 1987, 1994)"
 		target = diff(w.z)
@@ -65,9 +84,14 @@ func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, err
 	if err != nil {
 		return nil, err
 	}
+	return w.finishBreaks(out, res, stationary, trend), nil
+}
+
+// finishBreaks reads the Bai-Perron result res into the stage.
+func (w *work) finishBreaks(out *detOut, res *schema.Result, stationary bool, trend core.Trend) *detOut {
 	if res == nil {
 		out.stage.Decision = "breaks not tested"
-		return out, nil
+		return out
 	}
 	if !stationary {
 		res.Variant = "first difference"
@@ -79,8 +103,8 @@ func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, err
 		for i := range res.Breaks {
 			res.Breaks[i] = shiftBreak(res.Breaks[i], 1, len(w.z), w.in.Dates)
 		}
-	} else if w.logs {
-		res.Variant = "log levels"
+	} else if w.logs && !strings.Contains(res.Variant, "log") {
+		res.Variant = strings.TrimPrefix(res.Variant+", log levels", ", ")
 	}
 	out.bp = res
 	if res.Reject && len(res.Breaks) > 0 {
@@ -98,7 +122,7 @@ func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, err
 		out.stage.Decision = "no break"
 		out.stage.Evidence = append(out.stage.Evidence, "Bai-Perron finds no break at this level")
 	}
-	return out, nil
+	return out
 }
 
 func signif(b bool) string {
@@ -138,35 +162,38 @@ func shiftBreak(b schema.Break, by, T int, dates []string) schema.Break {
 	return b
 }
 
-// hacSlopeT is the t-ratio of b in y_t = a + b t + u_t with a Bartlett
-// long-run variance of u (Newey-West bandwidth).
-func hacSlopeT(y []float64) float64 {
+// hacSlopeT is the t-ratio of b in y_t = a + b t + Σ_j δ_j DU_jt + u_t
+// (DU_jt = 1(t > TB_j)) with the long-run variance of u from a Bartlett
+// kernel (Newey-West bandwidth): se(b)² = ω̂² [(X'X)^-1]_bb, the HAC variance
+// for deterministic regressors.
+func hacSlopeT(y []float64, tbs []int) float64 {
 	T := len(y)
-	if T < 8 {
+	if T < 8+len(tbs) {
 		return 0
 	}
-	tb := float64(T+1) / 2
-	yb := 0.0
-	for _, v := range y {
-		yb += v
+	cols := make([][]float64, 2+len(tbs))
+	for j := range cols {
+		cols[j] = make([]float64, T)
 	}
-	yb /= float64(T)
-	sxx, sxy := 0.0, 0.0
-	for i, v := range y {
-		d := float64(i+1) - tb
-		sxx += d * d
-		sxy += d * (v - yb)
+	for i := range T {
+		cols[0][i], cols[1][i] = 1, float64(i+1)
+		for j, tb := range tbs {
+			if i+1 > tb {
+				cols[2+j][i] = 1
+			}
+		}
 	}
-	b := sxy / sxx
-	u := make([]float64, T)
-	for i, v := range y {
-		u[i] = v - yb - b*(float64(i+1)-tb)
+	var ls core.LS
+	f, err := ls.Fit(cols, y)
+	if err != nil || !(f.Sigma2 > 0) {
+		return 0
 	}
-	lrv, _, err := core.LongRunVariance(u, core.KernelBartlett, core.BandwidthNeweyWest, 0)
+	lrv, _, err := core.LongRunVariance(f.Resid, core.KernelBartlett, core.BandwidthNeweyWest, 0)
 	if err != nil || !(lrv > 0) {
 		return 0
 	}
-	return b / math.Sqrt(lrv/sxx)
+	inv := f.StdErr[1] * f.StdErr[1] / f.Sigma2
+	return f.Coef[1] / math.Sqrt(lrv*inv)
 }
 
 // hacMeanT is the t-ratio of the mean of d with a Bartlett long-run

@@ -138,7 +138,7 @@ func describe(r *schema.Result) string {
 	if r == nil {
 		return ""
 	}
-	name := map[string]string{"adf": "ADF", "kpss": "KPSS", "za": "Zivot-Andrews", "bp": "Bai-Perron", "sadf": "SADF", "gsadf": "GSADF"}[r.Test]
+	name := map[string]string{"adf": "ADF", "kpss": "KPSS", "za": "Zivot-Andrews", "bp": "Bai-Perron", "sadf": "SADF", "gsadf": "GSADF", "seasonal": "seasonal unit-root test"}[r.Test]
 	if name == "" {
 		name = r.Test
 	}
@@ -175,6 +175,11 @@ func decisionWords(r *schema.Result) string {
 			return "finds explosive behaviour"
 		}
 		return "finds no explosive behaviour"
+	case "seasonal":
+		if r.Reject {
+			return "rejects seasonal unit roots"
+		}
+		return "does not reject seasonal unit roots"
 	}
 	if r.Reject {
 		return "rejects a unit root"

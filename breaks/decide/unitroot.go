@@ -190,7 +190,9 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 	out.stage.Statistic = schema.F(R)
 	lam := unionQuantile(T, 1-w.alpha)
 	pTab := unionP(T, R)
-	out.stage.PValue = schema.F(pTab)
+	if pTab < 0.5 {
+		out.stage.PValue = schema.F(pTab) // 0.5 is the table's bound: p >= 0.5
+	}
 	if !(R > lam) {
 		out.stage.Decision = "unit root not rejected"
 		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("union statistic R = %.3f does not exceed its scaled critical value %.3f at T = %d (p %s)", R, lam, T, pWords(pTab)))
