@@ -29,6 +29,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 
 	"github.com/rootshift/rootshift/core"
 	"gonum.org/v1/gonum/mat"
@@ -41,6 +42,7 @@ type nullModel struct {
 	gamma  []float64 // short-run AR coefficients
 	resid  []float64 // centred residuals at t = 2..T (index t-2); pre-sample slots filled by draws
 	fitted []bool    // whether resid[i] is an observed residual (false: draw one)
+	keep   []bool    // residuals far out in the tails keep their sign (jumps)
 	breaks []int     // drift breaks: TB in the series' 1-based numbering
 	k      int
 }
@@ -140,7 +142,36 @@ func fitSieve(y []float64, kmax int, mu []float64, driftBreaks []int) (*nullMode
 	if len(res) < 10 {
 		return nil, fmt.Errorf("%w: %d observations", core.ErrTooShort, T)
 	}
+	m.markJumps()
 	return m, nil
+}
+
+// markJumps marks the residuals beyond 4 robust standard deviations (1.4826
+// times the median absolute deviation) as jumps: the wild bootstrap keeps
+// their sign, so a one-time jump of the data appears in every bootstrap
+// sample as it is, not half the time reversed (a refinement of our own,
+// common practice for outliers, no source; the Rademacher weights flip every
+// other residual as in Cavaliere & Taylor 2008).
+func (m *nullModel) markJumps() {
+	var a []float64
+	for i, e := range m.resid {
+		if m.fitted[i] {
+			a = append(a, math.Abs(e))
+		}
+	}
+	if len(a) < 10 {
+		return
+	}
+	slices.Sort(a)
+	mad := a[len(a)/2]
+	if !(mad > 0) {
+		return
+	}
+	lim := 4 * 1.4826 * mad
+	m.keep = make([]bool, len(m.resid))
+	for i, e := range m.resid {
+		m.keep[i] = m.fitted[i] && math.Abs(e) > lim
+	}
 }
 
 // fitNull fits the I(1) null to y: the drift path mu (from driftPath on the
@@ -229,6 +260,7 @@ func fitNull(y []float64, spec dynSpec, mu []float64, driftBreaks []int) (*nullM
 		m.fitted[i] = true
 	}
 	m.mu, m.breaks = mu, driftBreaks
+	m.markJumps()
 	return m, nil
 }
 
@@ -364,7 +396,7 @@ func (m *nullModel) draw(dst, u []float64, r *rand.Rand) {
 				}
 			}
 		}
-		if r.Uint64()&1 == 0 {
+		if r.Uint64()&1 == 0 && (m.keep == nil || !m.keep[i] || !m.fitted[i]) {
 			e = -e
 		}
 		v := e
