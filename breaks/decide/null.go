@@ -146,12 +146,14 @@ func fitSieve(y []float64, kmax int, mu []float64, driftBreaks []int) (*nullMode
 	return m, nil
 }
 
-// markJumps marks the residuals beyond 4 robust standard deviations (1.4826
-// times the median absolute deviation) as jumps: the wild bootstrap keeps
-// their sign, so a one-time jump of the data appears in every bootstrap
+// markJumps marks isolated residuals beyond 4 robust standard deviations
+// (1.4826 times the median absolute deviation), whose neighbours are within
+// 2, as jumps: the wild bootstrap keeps their sign, so a one-time jump of the data appears in every bootstrap
 // sample as it is, not half the time reversed (a refinement of our own,
 // common practice for outliers, no source; the Rademacher weights flip every
-// other residual as in Cavaliere & Taylor 2008).
+// other residual as in Cavaliere & Taylor 2008). A run of large residuals
+// (a burst of volatility, the rise of a bubble) is not a jump and keeps
+// the wild bootstrap's random signs.
 func (m *nullModel) markJumps() {
 	var a []float64
 	for i, e := range m.resid {
@@ -167,10 +169,11 @@ func (m *nullModel) markJumps() {
 	if !(mad > 0) {
 		return
 	}
-	lim := 4 * 1.4826 * mad
+	sd := 1.4826 * mad
 	m.keep = make([]bool, len(m.resid))
+	quiet := func(j int) bool { return j < 0 || j >= len(m.resid) || !m.fitted[j] || math.Abs(m.resid[j]) <= 2*sd }
 	for i, e := range m.resid {
-		m.keep[i] = m.fitted[i] && math.Abs(e) > lim
+		m.keep[i] = m.fitted[i] && math.Abs(e) > 4*sd && quiet(i-1) && quiet(i+1)
 	}
 }
 
