@@ -48,7 +48,7 @@ func TestProcedureTargets(t *testing.T) {
 		check{"ar-shift5", DirStationary, false, 0.95, 0},
 		check{"ar-shift10", DirStationary, false, 0.95, 0},
 		check{"ts-slows", DirStationary, false, 0.90, 0},
-		check{"ts-turns", DirStationary, false, 0.90, 0.65}, // target missed: about 80%
+		check{"ts-turns", DirStationary, false, 0.90, 0.65},      // target missed: about 80%
 		check{"explosive-1.02", DirExplosive, false, 0.95, 0.70}, // target missed: about 85%
 		check{"explosive-1.05", DirExplosive, false, 0.95, 0},
 		check{"bubble", DirExplosive, false, 0.80, 0},
