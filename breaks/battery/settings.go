@@ -72,6 +72,9 @@ func Validate(s schema.Settings) error {
 	if s.Trim != 0 && !(s.Trim >= 0.01 && s.Trim < 0.5) {
 		return usage("trim", "%g: want a fraction between 0.01 and 0.5", s.Trim)
 	}
+	if s.RateDraws < 0 || s.RateDraws > 100_000 {
+		return usage("rate_draws", "%d: want 0..100000", s.RateDraws)
+	}
 	if s.Sims < 0 || s.Sims > 10_000_000 {
 		return usage("sims", "%d: want 0..10000000", s.Sims)
 	}

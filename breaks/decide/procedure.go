@@ -51,9 +51,10 @@ type Input struct {
 	// Transformed reports that the analyst already transformed Y (logs,
 	// differences): the scale stage then keeps Y as it is.
 	Transformed bool
-	// Settings are the analyst's settings: Level, Seed, Window and Sims are
-	// read (Sims > 0 recomputes the reliability at the series' length with
-	// that many draws per process).
+	// Settings are the analyst's settings: Level, Seed, Window, Shift (the
+	// window's test), Sims (the window's simulated null) and RateDraws
+	// (RateDraws > 0 recomputes the reliability at the series' length with
+	// that many draws per process) are read.
 	Settings schema.Settings
 	// Progress, if set, reports long work (the reliability simulation).
 	Progress func(done, total int)

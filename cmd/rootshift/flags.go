@@ -77,6 +77,7 @@ func settingsFlags(fs *flag.FlagSet, s *schema.Settings) {
 	fs.StringVar(&s.BreakDate, "break-date", "", "known break for p89: a date or an observation number (last observation of the old regime)")
 	fs.StringVar(&s.Window, "window", "", "suspected crisis window FROM:TO (dates or observation numbers)")
 	fs.IntVar(&s.Sims, "sims", 0, "add simulated finite-sample p-values with N replications")
+	fs.IntVar(&s.RateDraws, "rate-draws", 0, "recompute the verdict's error rates at the series' length and these settings with N draws per simulated process (slow); 0: the committed tables")
 	fs.Uint64Var(&s.Seed, "seed", 0, "seed for simulations (same seed, same numbers)")
 	fs.BoolVar(&s.RightTail, "right-tail", false, "adf against an explosive root (right-tailed)")
 	fs.Float64Var(&s.MinWindow, "min-window", 0, "sadf/gsadf minimum window fraction (default 0.01+1.8/sqrt(T))")

@@ -43,6 +43,11 @@ type Settings struct {
 	Window string `json:"window,omitempty"`
 	// Sims adds simulated finite-sample p-values with this many replications; 0: none.
 	Sims int `json:"sims,omitempty"`
+	// RateDraws, when positive, recomputes the verdict's error rates at the
+	// series' own length and these settings with this many draws per
+	// simulated process (slow: about 20 processes); 0 uses the committed
+	// tables at the nearest simulated length.
+	RateDraws int `json:"rate_draws,omitempty"`
 	// Seed seeds every simulation; the same seed gives the same numbers bit for bit.
 	Seed uint64 `json:"seed,omitempty"`
 	// RightTail makes adf a right-tailed (explosive alternative) test.
