@@ -113,6 +113,7 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 	out.stage.PValue = res.PValue
 	screen := res.Reject
 	if !screen {
+		res.Episodes = nil // dated episodes only for an explosive verdict
 		out.stage.Decision = "not explosive"
 		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("SADF = %.3f does not reach the %g critical value of its tabulated null, so no bootstrap was needed", stat, alpha))
 		return out, nil
@@ -167,6 +168,7 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 	if out.explosive {
 		out.stage.Decision = "explosive"
 	} else {
+		res.Episodes = nil
 		out.stage.Decision = "not explosive"
 		res.Reject = false
 		res.Warnings = append(res.Warnings, fmt.Sprintf("the tabulated null rejects, but the wild bootstrap under the fitted I(1) null does not (p = %s): the rise is what an integrated series with this drift path and volatility produces", pText(p)))

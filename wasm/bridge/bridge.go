@@ -265,7 +265,7 @@ type Plot struct {
 }
 
 // Plots draws series i (0-based, in document order) of the last analysis:
-// the series with its breaks (report.SeriesSVG), its autocorrelations
+// the series with its breaks, episodes and window (report.SeriesPlot), its autocorrelations
 // (report.ACFSVG) and every search path or sequence (report.PathSVG).
 func (s *Session) Plots(i int) string {
 	return Call(func() (any, error) {
@@ -282,12 +282,8 @@ func (s *Session) Plots(i int) string {
 		plots := []Plot{}
 		if i < len(inputs) && inputs[i].Values != nil {
 			in := inputs[i]
-			var episodes []schema.Episode
-			for _, r := range sr.Results {
-				episodes = append(episodes, r.Episodes...)
-			}
 			plots = append(plots,
-				Plot{Kind: "series", Title: "The series", SVG: inline(report.SeriesSVG(in, report.PlotBreaks(sr), episodes))},
+				Plot{Kind: "series", Title: "The series", SVG: inline(report.SeriesPlot(in, sr))},
 				Plot{Kind: "acf", Title: "Autocorrelations", SVG: inline(report.ACFSVG(in, 0))})
 		}
 		for _, r := range sr.Results {
