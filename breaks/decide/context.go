@@ -12,6 +12,7 @@ package decide
 import (
 	"context"
 	"fmt"
+	"strings"
 
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
@@ -37,15 +38,26 @@ func (w *work) context(ctx context.Context, v *schema.Verdict) error {
 	if v.Class == ClassTrendStationary || (integratedClass && v.Drift) {
 		trend = core.TrendLinear
 	}
-	res, err := w.run(ctx, "kpss", w.z, w.config(trend))
+	x, variant := w.z, w.scaleWords()
+	if v.Order != nil && *v.Order == 2 {
+		// For an I(2) verdict the question is whether the first difference
+		// is stationary.
+		x, trend, variant = diff(w.z), core.TrendConstant, "first difference"
+	}
+	res, err := w.run(ctx, "kpss", x, w.config(trend))
 	if err != nil || res == nil {
 		return err
 	}
-	if w.logs {
-		res.Variant = "log levels"
+	if variant != "" {
+		res.Variant = strings.TrimPrefix(res.Variant+", "+variant, ", ")
 	}
 	d := describe(res)
 	pointsOther := (stationaryClass && res.Reject) || (integratedClass && !res.Reject)
+	if v.Order != nil && *v.Order == 2 && !res.Reject {
+		v.Against = append(v.Against, d)
+		v.Explanation += " KPSS does not reject stationarity of the first difference at the same level, which points to I(1); with limited power on both sides, read the stages and the plots before differencing twice."
+		return nil
+	}
 	if v.Class == ClassBreakStationary && res.Reject {
 		// A stationary series around shifts rejects KPSS without breaks:
 		// that is what the shifts do, not a contradiction.

@@ -117,6 +117,10 @@ func (w *work) finishBreaks(out *detOut, res *schema.Result, stationary bool, tr
 			what = "changes in drift"
 		}
 		out.stage.Decision = fmt.Sprintf("%d %s", len(res.Breaks), what)
+		if len(res.Breaks) == 1 {
+			out.stage.Decision = strings.Replace(out.stage.Decision, "breaks", "break", 1)
+			out.stage.Decision = strings.Replace(out.stage.Decision, "changes", "change", 1)
+		}
 		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("Bai-Perron finds %s at %s", what, breakList(out.breaks)))
 	} else {
 		out.stage.Decision = "no break"

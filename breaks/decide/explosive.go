@@ -157,6 +157,8 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 		rising := w.z[e-1] > w.z[max(e-1-h, 0)]
 		if !rising && e < T-h {
 			out.explosive = false
+			res.Reject, res.Episodes = false, nil
+			res.Warnings = append(res.Warnings, "the verdict does not read this as explosive: the stretch where the statistic peaks is an accelerating fall that reverses before the end of the sample")
 			out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("the explosive-looking stretch ending at %s is an accelerating fall that reverses before the end of the sample: a downturn and recovery, not an explosive root", w.dateOf(e)))
 		}
 	}

@@ -66,7 +66,8 @@ func (w *work) order(ctx context.Context) (*orderOut, error) {
 	out.stage.Evidence = append(out.stage.Evidence, "with breaks allowed in the mean and trend of the difference: "+strings.Join(u.stage.Evidence, "; "))
 	if !u.missing && u.stationary {
 		out.stage.Decision = "at most I(1), with a changing drift"
-		out.stage.PValue = u.stage.PValue
+		out.stage.Method += "; then the union of stage 5 on the first difference"
+		out.stage.Statistic, out.stage.PValue = u.stage.Statistic, u.stage.PValue
 		return out, nil
 	}
 	out.i2 = true
