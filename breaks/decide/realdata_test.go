@@ -5,12 +5,17 @@
 // series through a recession is not explosive (a downturn and recovery is a
 // turn in drift, not a bubble), and no employment level is stationary in
 // levels around a constant mean with a recession inside; a stock price
-// index in levels is integrated.
+// index in levels is integrated. The monthly CO2 file of the same package
+// (co2-concentration.csv, with three calendar gaps) is strongly seasonal
+// with a stable pattern (common practice): its verdict names the
+// seasonality, with the gaps reported by the reader.
 package decide_test
 
 import (
 	"context"
+	"fmt"
 	"os"
+	"strings"
 	"testing"
 
 	"github.com/rootshift/rootshift/breaks/battery"
@@ -19,12 +24,16 @@ import (
 )
 
 func analyzeFile(t *testing.T, path string) *schema.Document {
+	return analyzeWith(t, path, schema.Settings{})
+}
+
+func analyzeWith(t *testing.T, path string, s schema.Settings) *schema.Document {
 	t.Helper()
 	b, err := os.ReadFile(path)
 	if err != nil {
 		t.Fatal(err)
 	}
-	doc, _, err := battery.AnalyzeText(context.Background(), path, b, schema.Settings{}, nil)
+	doc, _, err := battery.AnalyzeText(context.Background(), path, b, s, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -63,4 +72,30 @@ func TestStockIndexIntegrated(t *testing.T) {
 		t.Fatalf("S&P 500: verdict %+v, want an integrated class", v)
 	}
 	t.Logf("S&P 500 2000-2010: %s, %s", v.Class, v.Explanation)
+}
+
+func TestCO2SeasonalityNamed(t *testing.T) {
+	doc := analyzeWith(t, "../../testdata/co2-concentration.csv", schema.Settings{Gaps: "split"})
+	var s *schema.Series
+	for i := range doc.Series {
+		if doc.Series[i].Name == "CO2" {
+			s = &doc.Series[i]
+		}
+	}
+	if s == nil || s.Verdict == nil {
+		t.Fatalf("no verdict for the CO2 column: %+v", doc.Series)
+	}
+	if len(s.Notes) == 0 || !strings.Contains(fmt.Sprint(s.Notes), "gap") {
+		t.Errorf("the calendar gaps are not in the series' notes: %+v", s.Notes)
+	}
+	var stage *schema.Stage
+	for i := range s.Verdict.Stages {
+		if s.Verdict.Stages[i].Name == "seasonality" {
+			stage = &s.Verdict.Stages[i]
+		}
+	}
+	if stage == nil || stage.Decision == "no seasonality" || !strings.Contains(s.Verdict.Explanation, "seasonal") {
+		t.Errorf("seasonality not named: stage %+v, explanation %q", stage, s.Verdict.Explanation)
+	}
+	t.Logf("CO2: %s, %s; %s", s.Verdict.Class, s.Verdict.Transform, s.Verdict.Explanation)
 }
