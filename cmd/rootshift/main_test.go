@@ -12,7 +12,7 @@ import (
 // so end-to-end tests can run it as a separate process (and kill it).
 func TestMain(m *testing.M) {
 	if os.Getenv("ROOTSHIFT_AS_CLI") == "1" {
-		os.Exit(run(context.Background(), os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+		os.Exit(run(signalContext(), os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
 	}
 	os.Exit(m.Run())
 }

@@ -36,6 +36,17 @@ type Source struct {
 	Rows       int    `json:"rows"`
 	DateColumn string `json:"date_column,omitempty"`
 	Frequency  string `json:"frequency,omitempty"`
+	// Path is the input file's canonical path (absolute, symbolic links
+	// resolved); batch records only. With Fingerprint it identifies the
+	// input when a run is resumed.
+	Path string `json:"path,omitempty"`
+	// Fingerprint is "sha256:" and the hex SHA-256 of the input file's
+	// bytes (batch records only; empty for standard input).
+	Fingerprint string `json:"fingerprint,omitempty"`
+	// Index is the 1-based position of the series among every series read
+	// from the inputs of a batch run, counted before sharding and resume
+	// (batch records only): merging shard outputs sorts by it.
+	Index int `json:"index,omitempty"`
 }
 
 // Series is the result for one series.
