@@ -24,7 +24,9 @@ func TestBatchResumeSideFilesAndSettings(t *testing.T) {
 		t.Fatal(err)
 	}
 	base := []string{"batch", "--jsonl", "--tests", "kpss,adf", "--lean", "--quiet"}
-	outs := func(o string) []string { return []string{"-o", o + ".jsonl", "--csv", o + ".csv", "--verdicts", o + ".v.csv"} }
+	outs := func(o string) []string {
+		return []string{"-o", o + ".jsonl", "--csv", o + ".csv", "--verdicts", o + ".v.csv"}
+	}
 	full := filepath.Join(dir, "full")
 	if code, _, stderr := runCLI(t, "", append(append(slices.Clone(base), outs(full)...), in)...); code != exitFailed {
 		t.Fatalf("full run: exit %d: %s", code, stderr)
