@@ -14,8 +14,6 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
-	"runtime"
-	"sort"
 	"strings"
 	"sync"
 	"time"
@@ -237,29 +235,10 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 	if err := CheckInputs(cfg.Inputs); err != nil {
 		return Summary{}, err
 	}
-	jobs := cfg.Jobs
-	if jobs <= 0 {
-		jobs = runtime.GOMAXPROCS(0)
-	}
-	parent := ctx
-	ctx, cancel := context.WithCancel(ctx)
-	defer cancel()
-	// In-flight bound: the producer blocks when 4*jobs series are read but
-	// not yet written, so memory does not grow with the input.
-	inflight := make(chan struct{}, 4*jobs)
-	tasks := make(chan task)
-	type done struct {
-		seq int
-		rec Record
-	}
-	results := make(chan done, jobs)
 	var sum Summary
 	var sumMu sync.Mutex
-	var prodErr error
-	go func() {
-		defer close(tasks)
-		seq := 0
-		emit := func(t task) bool {
+	prod := func(ctx context.Context, emit func(task) bool) error {
+		return produce(ctx, cfg, func(t task) bool {
 			id := ID(t.source, t.in.Name)
 			sumMu.Lock()
 			sum.Read++
@@ -269,90 +248,48 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 				sum.Skipped++
 			}
 			sumMu.Unlock()
-			if skip {
-				return true
-			}
-			select {
-			case inflight <- struct{}{}:
-			case <-ctx.Done():
-				return false
-			}
-			t.seq = seq
-			seq++
-			select {
-			case tasks <- t:
-				return true
-			case <-ctx.Done():
-				return false
-			}
-		}
-		prodErr = produce(ctx, cfg, emit, &sum, &sumMu)
-	}()
-	var wg sync.WaitGroup
+			return skip || emit(t)
+		}, &sum, &sumMu)
+	}
 	opt := &battery.Options{Cache: cfg.Cache, Workers: 1}
 	maxObs := cfg.MaxObs
 	if maxObs == 0 {
 		maxObs = DefaultMaxObs
 	}
-	for w := 0; w < jobs; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for t := range tasks {
-				doc := battery.NewDocument(cfg.Settings)
-				doc.Source = &schema.Source{Name: t.source, Rows: len(t.in.Values), Frequency: t.freq, Fingerprint: t.fp, Index: t.index}
-				if t.path != "stdin" {
-					doc.Source.Path = t.path
-				}
-				if t.fail == nil && maxObs > 0 && len(t.in.Values) > maxObs {
-					t.fail = &dataset.SeriesError{Series: t.in.Name, Err: fmt.Errorf("%w: %d observations, the limit is %d (raise it with --max-obs)", ErrTooLong, len(t.in.Values), maxObs)}
-					t.in.Values, t.in.Dates = nil, nil
-				}
-				var sr schema.Series
-				if t.fail != nil {
-					sr = battery.FailedSeries(t.in.Name, t.freq, cfg.Settings, t.fail)
-				} else {
-					var err error
-					sr, err = battery.AnalyzeSeries(ctx, t.in, cfg.Settings, opt)
-					if err != nil {
-						cancel()
-						continue
-					}
-				}
-				if cfg.Lean {
-					for i := range sr.Results {
-						lean(&sr.Results[i])
-					}
-					if v := sr.Verdict; v != nil && v.Window != nil && v.Window.Known != nil {
-						lean(v.Window.Known)
-					}
-				}
-				doc.Series = []schema.Series{sr}
-				rec := Record{ID: ID(t.source, t.in.Name), Key: Key(t.path, t.in.Name), Doc: doc, Input: t.in}
-				select {
-				case results <- done{t.seq, rec}:
-				case <-ctx.Done():
-					return
-				}
-			}
-		}()
-	}
-	go func() { wg.Wait(); close(results) }()
-
-	// Writer: in input order (a small reorder buffer bounded by the
-	// in-flight limit) or as completed.
-	pending := map[int]Record{}
-	next := 0
-	var sinkErr error
-	write := func(r Record) {
-		<-inflight
-		if sinkErr != nil {
-			return
+	work := func(ctx context.Context, t task) (Record, error) {
+		doc := battery.NewDocument(cfg.Settings)
+		doc.Source = &schema.Source{Name: t.source, Rows: len(t.in.Values), Frequency: t.freq, Fingerprint: t.fp, Index: t.index}
+		if t.path != "stdin" {
+			doc.Source.Path = t.path
 		}
+		if t.fail == nil && maxObs > 0 && len(t.in.Values) > maxObs {
+			t.fail = &dataset.SeriesError{Series: t.in.Name, Err: fmt.Errorf("%w: %d observations, the limit is %d (raise it with --max-obs)", ErrTooLong, len(t.in.Values), maxObs)}
+			t.in.Values, t.in.Dates = nil, nil
+		}
+		var sr schema.Series
+		if t.fail != nil {
+			sr = battery.FailedSeries(t.in.Name, t.freq, cfg.Settings, t.fail)
+		} else {
+			var err error
+			sr, err = AnalyzeSeries(ctx, t.in, cfg.Settings, opt)
+			if err != nil {
+				return Record{}, err
+			}
+		}
+		if cfg.Lean {
+			for i := range sr.Results {
+				lean(&sr.Results[i])
+			}
+			if v := sr.Verdict; v != nil && v.Window != nil && v.Window.Known != nil {
+				lean(v.Window.Known)
+			}
+		}
+		doc.Series = []schema.Series{sr}
+		return Record{ID: ID(t.source, t.in.Name), Key: Key(t.path, t.in.Name), Doc: doc, Input: t.in}, nil
+	}
+	write := func(r Record) error {
 		if err := sink(r); err != nil {
-			sinkErr = err
-			cancel()
-			return
+			return err
 		}
 		sumMu.Lock()
 		if len(r.Doc.Series[0].Errors) > 0 {
@@ -366,40 +303,14 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 			s.Elapsed = time.Since(start)
 			cfg.Progress(s)
 		}
+		return nil
 	}
-	for d := range results {
-		if cfg.Completed {
-			write(d.rec)
-			continue
-		}
-		pending[d.seq] = d.rec
-		for {
-			p, ok := pending[next]
-			if !ok {
-				break
-			}
-			delete(pending, next)
-			next++
-			write(p)
-		}
-	}
-	// Anything left (only after cancellation) in sequence order.
-	keys := make([]int, 0, len(pending))
-	for k := range pending {
-		keys = append(keys, k)
-	}
-	sort.Ints(keys)
-	for _, k := range keys {
-		write(pending[k])
-	}
+	err := Pool(ctx, cfg.Jobs, cfg.Completed, prod, work, write)
 	sum.Elapsed = time.Since(start)
-	if sinkErr != nil {
-		return sum, sinkErr
+	if cerr := ctx.Err(); cerr != nil && (err == nil || errors.Is(err, core.ErrCancelled) || errors.Is(err, context.Canceled)) {
+		return sum, fmt.Errorf("%w: %v", core.ErrCancelled, cerr)
 	}
-	if err := parent.Err(); err != nil {
-		return sum, fmt.Errorf("%w: %v", core.ErrCancelled, err)
-	}
-	return sum, prodErr
+	return sum, err
 }
 
 // produce reads the inputs in order and emits one task per series (or per

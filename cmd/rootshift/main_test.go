@@ -24,3 +24,10 @@ func runCLI(t *testing.T, stdin string, args ...string) (int, string, string) {
 	code := run(context.Background(), args, strings.NewReader(stdin), &out, &errb)
 	return code, out.String(), errb.String()
 }
+
+// runCLIb is runCLI for benchmarks.
+func runCLIb(args ...string) (int, string, string) {
+	var out, errb bytes.Buffer
+	code := run(context.Background(), args, strings.NewReader(""), &out, &errb)
+	return code, out.String(), errb.String()
+}
