@@ -89,20 +89,9 @@ func (e *env) batchMerge(args []string) int {
 					e.errorf("batch merge: %s: line %d is incomplete (an interrupted run? resume it first)", p, n)
 					return exitFailed
 				}
-				var rec struct {
-					Schema   string          `json:"schema"`
-					Settings json.RawMessage `json:"settings"`
-					Source   *struct {
-						Name  string `json:"name"`
-						Path  string `json:"path"`
-						Index int    `json:"index"`
-					} `json:"source"`
-					Series []struct {
-						Name string `json:"name"`
-					} `json:"series"`
-				}
-				if err := json.Unmarshal(raw, &rec); err != nil || rec.Source == nil || len(rec.Series) != 1 || !strings.HasPrefix(rec.Schema, "rootshift.results/") {
-					e.errorf("batch merge: %s: line %d is not a rootshift batch record", p, n)
+				rec, err := recordHead(raw)
+				if err != nil {
+					e.errorf("batch merge: %s: line %d is not a rootshift batch record (%v)", p, n, err)
 					return exitUsage
 				}
 				if rec.Source.Index < 1 {
@@ -119,7 +108,7 @@ func (e *env) batchMerge(args []string) int {
 				if path == "" {
 					path = rec.Source.Name
 				}
-				lines = append(lines, mergeLine{index: rec.Source.Index, part: pi, off: off, length: len(raw), key: batch.Key(path, rec.Series[0].Name)})
+				lines = append(lines, mergeLine{index: rec.Source.Index, part: pi, off: off, length: len(raw), key: batch.Key(path, rec.Name)})
 				off += int64(len(raw))
 			}
 			if rerr == io.EOF {
@@ -220,4 +209,76 @@ func abbreviate(list []string, n int) string {
 		return strings.Join(list, ", ")
 	}
 	return strings.Join(list[:n], ", ") + fmt.Sprintf(", ... (%d more)", len(list)-n)
+}
+
+// head is what merge needs of a record: its settings, source and series
+// name.
+type head struct {
+	Settings json.RawMessage
+	Source   struct {
+		Name  string `json:"name"`
+		Path  string `json:"path"`
+		Index int    `json:"index"`
+	}
+	Name string
+}
+
+// recordHead reads the members of a batch record up to its series' name,
+// without decoding the results that follow (most of the record).
+func recordHead(raw []byte) (head, error) {
+	var h head
+	dec := json.NewDecoder(bytes.NewReader(raw))
+	if t, err := dec.Token(); err != nil || t != json.Delim('{') {
+		return h, errors.New("not a JSON object")
+	}
+	var schemaID string
+	haveSource := false
+	for dec.More() {
+		t, err := dec.Token()
+		if err != nil {
+			return h, err
+		}
+		key, _ := t.(string)
+		switch key {
+		case "schema":
+			err = dec.Decode(&schemaID)
+		case "settings":
+			err = dec.Decode(&h.Settings)
+		case "source":
+			err = dec.Decode(&h.Source)
+			haveSource = true
+		case "series":
+			if !strings.HasPrefix(schemaID, "rootshift.results/") || !haveSource {
+				return h, errors.New("no schema marker or no source before the series")
+			}
+			if t, err := dec.Token(); err != nil || t != json.Delim('[') {
+				return h, errors.New("series is not an array")
+			}
+			if t, err := dec.Token(); err != nil || t != json.Delim('{') {
+				return h, errors.New("no series")
+			}
+			for dec.More() {
+				t, err := dec.Token()
+				if err != nil {
+					return h, err
+				}
+				if t == "name" {
+					err := dec.Decode(&h.Name)
+					return h, err
+				}
+				var skip json.RawMessage
+				if err := dec.Decode(&skip); err != nil {
+					return h, err
+				}
+			}
+			return h, errors.New("series without a name")
+		default:
+			var skip json.RawMessage
+			err = dec.Decode(&skip)
+		}
+		if err != nil {
+			return h, err
+		}
+	}
+	return h, errors.New("no series")
 }
