@@ -62,3 +62,25 @@ func TestTestNothingToProcess(t *testing.T) {
 		}
 	}
 }
+
+// TestBatchTooLongRecordFailsAlone: a record longer than --max-obs fails
+// with a message; the records around it are tested and the batch goes on.
+func TestBatchTooLongRecordFailsAlone(t *testing.T) {
+	in := smallJSONL(2, 60)
+	long := make([]string, 3000)
+	for i := range long {
+		long[i] = "1.5"
+	}
+	in = `{"id":"huge","values":[` + strings.Join(long, ",") + "]}\n" + in
+	code, out, stderr := runCLI(t, in, "batch", "--jsonl", "--tests", "kpss", "--lean", "--quiet", "--max-obs", "1000", "-")
+	if code != exitFailed {
+		t.Fatalf("exit %d, want 1: %s", code, stderr)
+	}
+	lines := strings.Split(strings.TrimSpace(out), "\n")
+	if len(lines) != 4 || !strings.Contains(lines[0], "limit is 1000") {
+		t.Fatalf("%d records; first: %.200s", len(lines), lines[0])
+	}
+	if strings.Contains(lines[1], `"errors":[{`) || strings.Contains(lines[2], `"errors":[{`) {
+		t.Error("the records after the long one must be tested")
+	}
+}
