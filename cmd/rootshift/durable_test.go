@@ -180,3 +180,27 @@ func TestBatchFaultInjection(t *testing.T) {
 		}
 	}
 }
+
+// TestBatchDiskFull writes to /dev/full (every write fails with "no space
+// left on device"), the closest to a full disk a test can get without
+// mounting a filesystem: exit status 3 and a summary of zero records.
+func TestBatchDiskFull(t *testing.T) {
+	if _, err := os.Stat("/dev/full"); err != nil {
+		t.Skip("no /dev/full here")
+	}
+	in := filepath.Join(t.TempDir(), "in.jsonl")
+	os.WriteFile(in, []byte(smallJSONL(5, 40)), 0o644)
+	code, _, stderr := runCLI(t, "", "batch", "--jsonl", "--tests", "kpss", "-o", "/dev/full", in)
+	if code != exitOutput || summaryCount(t, stderr) != 0 || !strings.Contains(stderr, "no space left") {
+		t.Fatalf("exit %d, stderr %q: want %d, zero records counted and the cause", code, stderr, exitOutput)
+	}
+	f, err := os.OpenFile("/dev/full", os.O_WRONLY, 0)
+	if err != nil {
+		t.Skip(err)
+	}
+	defer f.Close()
+	code = run(t.Context(), []string{"test", "--json", "--tests", "adf", "../../testdata/demo.csv"}, strings.NewReader(""), f, &bytes.Buffer{})
+	if code != exitOutput {
+		t.Errorf("test --json to a full disk: exit %d, want %d", code, exitOutput)
+	}
+}
