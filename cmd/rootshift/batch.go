@@ -223,8 +223,13 @@ func (e *env) batch(args []string) int {
 		)
 		cfg.Progress = func(batch.Summary) { bar.Add(1) }
 	case progressEvery > 0:
+		// A line every N series, and at least every 30 s (the first after
+		// 5 s) so that slow work is announced early.
+		lastLine := time.Now()
+		wait := 5 * time.Second
 		cfg.Progress = func(s batch.Summary) {
-			if n := s.Tested + s.Failed; n%progressEvery == 0 {
+			if n := s.Tested + s.Failed; n%progressEvery == 0 || time.Since(lastLine) >= wait {
+				lastLine, wait = time.Now(), 30*time.Second
 				fmt.Fprintf(e.stderr, "rootshift: progress: %d series done (%d failed), %d read, %.0f s, %.0f series/s\n",
 					n, s.Failed, s.Read, s.Elapsed.Seconds(), float64(n)/s.Elapsed.Seconds())
 			}
@@ -238,9 +243,11 @@ func (e *env) batch(args []string) int {
 	if werr != nil && err == nil {
 		err = werr
 	}
+	cacheFailed := false
 	if cfg.Cache != nil && cachePath != "" {
 		if err := cfg.Cache.SaveFile(cachePath); err != nil {
 			e.errorf("batch: saving the distribution cache: %v", err)
+			cacheFailed = true
 		}
 	}
 	produced := sum.Tested + sum.Failed
@@ -267,6 +274,9 @@ func (e *env) batch(args []string) int {
 			return exitUsage
 		}
 		return exitFailed
+	}
+	if cacheFailed {
+		return exitOutput
 	}
 	if sum.Read == 0 {
 		e.errorf("batch: nothing to process: no series in the input (exit status %d)", exitNothing)
