@@ -54,7 +54,8 @@ type Config struct {
 	// Shard, of Shards, selects the series whose id hashes to Shard-1 mod
 	// Shards (Shard counted from 1); Shards 0 or 1 takes everything.
 	Shard, Shards int
-	// Skip holds series ids already done (resume).
+	// Skip holds the series already done (resume): keys (Key, canonical
+	// path) or, for records of earlier versions, ids (ID, path as given).
 	Skip map[string]bool
 	// Cache reuses simulated null distributions across series.
 	Cache *battery.DistCache
@@ -243,7 +244,9 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 			sumMu.Lock()
 			sum.Read++
 			t.index = sum.Read
-			skip := !InShard(id, cfg.Shard, cfg.Shards) || cfg.Skip[Key(t.path, t.in.Name)]
+			// Records of earlier versions carry no canonical path: they
+			// match by the path as given (ID).
+			skip := !InShard(id, cfg.Shard, cfg.Shards) || cfg.Skip[Key(t.path, t.in.Name)] || cfg.Skip[id]
 			if skip {
 				sum.Skipped++
 			}
