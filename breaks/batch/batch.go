@@ -506,8 +506,10 @@ func emitTable(source string, t *dataset.Table, cfg Config, emit func(task) bool
 // Expand replaces directories by their data files (.csv, .tsv, .txt,
 // .xlsx, .jsonl), in name order. It leaves out, with a note: paths whose
 // canonical form is in exclude (the run's own outputs), and non-regular
-// files (named pipes, sockets, devices), which could block the run or never
-// end. A path that cannot be examined stays in the list: reading it yields
+// files in a directory (named pipes, sockets, devices), which could block
+// the run or never end; a pipe or character device named explicitly (such
+// as /dev/fd/N from a shell's process substitution) is read, a socket is
+// not. A path that cannot be examined stays in the list: reading it yields
 // a failure record.
 func Expand(inputs, exclude []string, note func(string)) ([]string, error) {
 	if note == nil {
@@ -550,7 +552,13 @@ func Expand(inputs, exclude []string, note func(string)) ([]string, error) {
 			continue
 		}
 		if !st.IsDir() {
-			if keep(in, st) {
+			// A pipe or a character device named explicitly is read: the
+			// user asked for it ("batch <(command)" passes /dev/fd/N).
+			// Sockets cannot be read as files.
+			m := st.Mode()
+			if named := m&fs.ModeNamedPipe != 0 || m&fs.ModeCharDevice != 0; named && !excluded(in) {
+				out = append(out, in)
+			} else if keep(in, st) {
 				out = append(out, in)
 			}
 			continue

@@ -25,9 +25,10 @@ const batchUsage = `Usage: rootshift batch [options] INPUT...
 Runs the analysis on many series and writes one JSON Lines record per series
 (a schema v1 document holding that one series). INPUT is a file, a directory
 (its .csv, .tsv, .txt, .xlsx, .jsonl files) or "-" for standard input.
-Named pipes, sockets and devices are skipped with a note, and so are files
-this tool wrote (recognised by their schema marker) and the run's own output
-files; an output that is one of the INPUT files is a usage error.
+Named pipes, sockets and devices in a directory are skipped with a note, and
+so are files this tool wrote (recognised by their schema marker) and the
+run's own output files; an output that is one of the INPUT files is a usage
+error.
 
 Input shapes:
   wide files (default)  every numeric column of each file is a series
