@@ -51,7 +51,6 @@ type JSONStream struct {
 	indent bool
 	suffix []byte
 	n      int
-	buf    bytes.Buffer
 	err    error
 }
 
@@ -103,20 +102,21 @@ func (s *JSONStream) Series(sr *schema.Series) error {
 		s.err = err
 		return err
 	}
-	s.buf.Reset()
+	var sep string
 	switch {
 	case s.n == 0 && s.indent:
-		s.buf.WriteString("[\n    ")
+		sep = "[\n    "
 	case s.n == 0:
-		s.buf.WriteByte('[')
+		sep = "["
 	case s.indent:
-		s.buf.WriteString(",\n    ")
+		sep = ",\n    "
 	default:
-		s.buf.WriteByte(',')
+		sep = ","
 	}
-	s.buf.Write(b)
 	s.n++
-	_, s.err = s.w.Write(s.buf.Bytes())
+	if _, s.err = io.WriteString(s.w, sep); s.err == nil {
+		_, s.err = s.w.Write(b)
+	}
 	return s.err
 }
 

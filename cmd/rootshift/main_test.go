@@ -25,9 +25,14 @@ func runCLI(t *testing.T, stdin string, args ...string) (int, string, string) {
 	return code, out.String(), errb.String()
 }
 
-// runCLIb is runCLI for benchmarks.
-func runCLIb(args ...string) (int, string, string) {
-	var out, errb bytes.Buffer
+// runCLIb is runCLI for benchmarks: standard output is counted, not kept.
+func runCLIb(args ...string) (int, int64, string) {
+	var out countWriter
+	var errb bytes.Buffer
 	code := run(context.Background(), args, strings.NewReader(""), &out, &errb)
-	return code, out.String(), errb.String()
+	return code, int64(out), errb.String()
 }
+
+type countWriter int64
+
+func (c *countWriter) Write(b []byte) (int, error) { *c += countWriter(len(b)); return len(b), nil }

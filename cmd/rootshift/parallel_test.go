@@ -66,7 +66,7 @@ func BenchmarkCLITestZA(b *testing.B) {
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
 		code, out, stderr := runCLIb("test", "--json", "--tests", "za", "--shift", "level+slope", "--lags", "4", "--quiet", p)
-		if code != 0 || len(out) == 0 {
+		if code != 0 || out == 0 {
 			b.Fatalf("exit %d: %s", code, stderr)
 		}
 	}

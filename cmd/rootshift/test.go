@@ -208,7 +208,7 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	}
 	// Output: JSON streams series by series; compact unless indented on
 	// request or shown on a terminal.
-	var w io.Writer = e.stdout
+	var w io.Writer = bufio.NewWriterSize(e.stdout, 1<<16)
 	var outFile *os.File
 	if o.out != "" {
 		f, err := os.CreateTemp(filepath.Dir(o.out), "."+filepath.Base(o.out)+".tmp*")
