@@ -84,3 +84,25 @@ func rescaleExponent(y []float64) (int, float64) {
 	_, e := math.Frexp(m) // m = f * 2^e, f in [0.5, 1)
 	return 1 - e, m
 }
+
+// CompactArrays replaces the candidate paths and two-break surface rows of
+// sr by their compact runs (schema.Run) where their indices form an
+// arithmetic run; other lists stay as they are.
+func CompactArrays(sr *schema.Series) {
+	do := func(r *schema.Result) {
+		if c := schema.CompactPoints(r.Path); c != nil {
+			r.Path, r.PathCompact = nil, c
+		}
+		if r.Surface != nil {
+			if c := schema.CompactPoints(r.Surface.Rows); c != nil {
+				r.Surface.Rows, r.Surface.RowsCompact = nil, c
+			}
+		}
+	}
+	for i := range sr.Results {
+		do(&sr.Results[i])
+	}
+	if v := sr.Verdict; v != nil && v.Window != nil && v.Window.Known != nil {
+		do(v.Window.Known)
+	}
+}

@@ -75,6 +75,9 @@ type Config struct {
 	// (0: DefaultMaxObs; negative: no limit). It bounds the memory and time
 	// one series may take; the batch goes on with the next.
 	MaxObs int
+	// CompactArrays writes candidate paths and surface rows as compact
+	// runs (see CompactArrays).
+	CompactArrays bool
 	// Lean drops the plotting data (break-search paths, statistic
 	// sequences, two-break surface rows) from the records, which are
 	// otherwise about three times larger.
@@ -286,6 +289,9 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 			if v := sr.Verdict; v != nil && v.Window != nil && v.Window.Known != nil {
 				lean(v.Window.Known)
 			}
+		}
+		if cfg.CompactArrays {
+			CompactArrays(&sr)
 		}
 		doc.Series = []schema.Series{sr}
 		return Record{ID: ID(t.source, t.in.Name), Key: Key(t.path, t.in.Name), Doc: doc, Input: t.in}, nil

@@ -78,6 +78,7 @@ func (e *env) batch(args []string) int {
 	fs.BoolVar(&quiet, "quiet", false, "no progress on standard error")
 	fs.IntVar(&progressEvery, "progress-every", 1000, "when standard error is not a terminal: a progress line every `N` series (0: none)")
 	fs.IntVar(&cfg.MaxObs, "max-obs", batch.DefaultMaxObs, "a series longer than `N` observations fails alone (about 1 GB and minutes each at the limit; -1: no limit)")
+	fs.BoolVar(&cfg.CompactArrays, "compact-arrays", false, "write candidate paths and surface rows as compact runs (path_compact: first, step, values): about 40% of their size")
 	fs.BoolVar(&cfg.Lean, "lean", false, "leave out plotting data (search paths, sequences): records about a third the size")
 	inputs, err := parseInterleaved(fs, args)
 	if err != nil {

@@ -32,6 +32,8 @@ type outputOpts struct {
 	indent   bool
 	compact  bool
 	force    bool
+	// compactArrays writes paths as schema.Run (JSON output).
+	compactArrays bool
 }
 
 // outputFlags binds the output and resource flags shared by test and demo.
@@ -39,6 +41,7 @@ func outputFlags(fs *flag.FlagSet, o *outputOpts) {
 	fs.IntVar(&o.jobs, "j", 0, "`number` of series analysed in parallel (default: all cores); the output is the same for any number")
 	fs.BoolVar(&o.indent, "indent", false, "JSON: indented (the default when standard output is a terminal)")
 	fs.BoolVar(&o.compact, "compact", false, "JSON: one line (the default when the output is a file or a pipe)")
+	fs.BoolVar(&o.compactArrays, "compact-arrays", false, "JSON: candidate paths and surface rows as compact runs (path_compact: first, step, values)")
 	fs.BoolVar(&o.force, "force", false, fmt.Sprintf("test series longer than %d observations (slow and memory-hungry: about 1 GB and minutes each)", batch.DefaultMaxObs))
 }
 
@@ -135,6 +138,9 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	}
 	if err := checkFormat(o.format); err != nil {
 		return e.usageExit(err)
+	}
+	if o.compactArrays && o.format != "json" {
+		return e.usageExit(errors.New("--compact-arrays applies to JSON output (--json); the other formats plot the paths"))
 	}
 	if o.indent && o.compact {
 		return e.usageExit(errors.New("--indent and --compact exclude each other"))
@@ -266,6 +272,9 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			return done{}, err
 		}
 		sr.Name = j.name
+		if o.compactArrays {
+			batch.CompactArrays(&sr)
+		}
 		in := j.in
 		in.Name = j.name
 		return done{sr, in}, nil
