@@ -74,6 +74,10 @@ type DFWork struct {
 	xy   []float64 // X'Δz
 	idx  []int
 	crit []float64 // criterion by k from the last selection (tests)
+	// nearExact is set by the fast path when the fit at kmax leaves almost
+	// no residual (SSR below 1e-10 of the total): only the QR fit can tell
+	// an exact fit (ErrNoEstimate) from a very good one.
+	nearExact bool
 }
 
 // Regress fits with k lags on t = start..T; start = 0 means k+2 (all
@@ -174,15 +178,53 @@ func (w *DFWork) SelectLags(y []float64, det Trend, rule LagRule, kmax int) (int
 	default:
 		return 0, fmt.Errorf("%w: lag rule %v is not a selection rule", ErrSettings, rule)
 	}
-	// The QR fit at kmax validates the sample (length, finiteness, constant
-	// or exactly fitted series) with the same errors as Regress.
-	if _, err := w.Regress(y, det, kmax, kmax+2); err != nil {
-		return 0, err
+	// The sample is validated (length, finiteness, constant or exactly
+	// fitted series) with the same errors as Regress at kmax. That QR fit
+	// holds a T x (kmax+3) design (2 GB at T = 1e6), so it is made only
+	// when cheap O(T) checks cannot vouch for the sample: a short or
+	// non-finite sample, differences or levels whose squares overflow, the
+	// MAIC criterion on a detrended copy, or a fast-path fit at kmax so close
+	// to exact that only the QR fit can tell.
+	validated := false
+	if !w.plainSample(y, det, kmax) || (rule == LagMAIC && det != TrendNone) {
+		if _, err := w.Regress(y, det, kmax, kmax+2); err != nil {
+			return 0, err
+		}
+		validated = true
 	}
 	if k, ok := w.selectLagsFast(y, det, rule, kmax); ok {
+		if w.nearExact && !validated {
+			if _, err := w.Regress(y, det, kmax, kmax+2); err != nil {
+				return 0, err
+			}
+		}
 		return k, nil
 	}
 	return w.selectLagsQR(y, det, rule, kmax)
+}
+
+// plainSample reports whether the Dickey-Fuller sample t = kmax+2..T of y
+// passes the checks of Regress at kmax that need no fit: more observations
+// than regressors, finite values, finite sums of squares of the levels and
+// differences, and differences that are not all zero.
+func (w *DFWork) plainSample(y []float64, det Trend, kmax int) bool {
+	T := len(y)
+	n := T - kmax - 1
+	if n <= 1+kmax+det.NumDet() {
+		return false
+	}
+	tss, lss := 0.0, 0.0
+	for i, v := range y {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return false
+		}
+		lss += v * v
+		if i >= kmax+1 {
+			d := v - y[i-1]
+			tss += d * d
+		}
+	}
+	return tss > 0 && !math.IsInf(tss, 0) && !math.IsInf(lss, 0)
 }
 
 // selectLagsFast is the cross-product path of SelectLags; ok is false when
@@ -262,6 +304,7 @@ func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) 
 		w.idx = make([]int, m)
 	}
 	w.crit = grow(w.crit, kmax+1)
+	w.nearExact = false
 	N := float64(n)
 	logScale := 2 * math.Log(scale)
 	best, bestK := math.Inf(1), 0
@@ -287,6 +330,9 @@ func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) 
 		ssr, err := nm.Solve()
 		if err != nil || !(ssr > 0) {
 			return 0, false
+		}
+		if kk == kmax && !(ssr > 1e-10*yy) {
+			w.nearExact = true
 		}
 		var v float64
 		switch rule {

@@ -4,6 +4,8 @@ import (
 	"bufio"
 	"bytes"
 	"context"
+	"crypto/sha256"
+	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -12,8 +14,6 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
-	"runtime"
-	"sort"
 	"strings"
 	"sync"
 	"time"
@@ -54,7 +54,8 @@ type Config struct {
 	// Shard, of Shards, selects the series whose id hashes to Shard-1 mod
 	// Shards (Shard counted from 1); Shards 0 or 1 takes everything.
 	Shard, Shards int
-	// Skip holds series ids already done (resume).
+	// Skip holds the series already done (resume): keys (Key, canonical
+	// path) or, for records of earlier versions, ids (ID, path as given).
 	Skip map[string]bool
 	// Cache reuses simulated null distributions across series.
 	Cache *battery.DistCache
@@ -62,6 +63,21 @@ type Config struct {
 	Progress func(Summary)
 	// Stdin is read for the input "-".
 	Stdin io.Reader
+	// Exclude lists canonical paths (see Canonical) never read as inputs:
+	// the run's own output files. A directory input skips them by name; an
+	// explicit input among them is skipped with a note.
+	Exclude []string
+	// Note receives one line per input skipped without a record: a
+	// non-regular file (pipe, socket, device), an output of this tool
+	// (recognised by its schema marker) or an excluded output path.
+	Note func(string)
+	// MaxObs fails, alone, a series longer than this many observations
+	// (0: DefaultMaxObs; negative: no limit). It bounds the memory and time
+	// one series may take; the batch goes on with the next.
+	MaxObs int
+	// CompactArrays writes candidate paths and surface rows as compact
+	// runs (see CompactArrays).
+	CompactArrays bool
 	// Lean drops the plotting data (break-search paths, statistic
 	// sequences, two-break surface rows) from the records, which are
 	// otherwise about three times larger.
@@ -80,9 +96,20 @@ type Summary struct {
 	Elapsed   time.Duration `json:"-"`
 }
 
+// DefaultMaxObs is the default Config.MaxObs: about 1 GB and several
+// minutes for the default battery on one series (measured on 2 cores;
+// README "Batch runs").
+const DefaultMaxObs = 200_000
+
+// ErrTooLong is wrapped by the error of a series longer than Config.MaxObs.
+var ErrTooLong = errors.New("series too long for the configured limit")
+
 // Record is one output line, written by Sink.
 type Record struct {
-	ID  string
+	ID string
+	// Key identifies the series for resume: the input's canonical path (or
+	// "stdin") and the series name (see Key).
+	Key string
 	Doc *schema.Document
 	// Input is the prepared series (nil values for failed ones).
 	Input dataset.Series
@@ -121,8 +148,60 @@ func CheckInputs(inputs []string) error {
 	return fmt.Errorf("%s %s: %w", word, strings.Join(missing, ", "), ErrMissingInput)
 }
 
-// ID returns the series id used for resume and sharding.
+// ID returns the series id used for sharding and in the side files: the
+// input path as given and the series name.
 func ID(source, name string) string { return source + ":" + name }
+
+// Key returns the series key used for resume: the input's canonical path
+// (Canonical) and the series name. The same file named by an absolute or a
+// relative path, or through a symbolic link, gives the same key.
+func Key(canonicalPath, name string) string { return canonicalPath + ":" + name }
+
+// Canonical returns the absolute path of p with symbolic links resolved
+// (the absolute path alone when p does not exist); "-" stays "-".
+func Canonical(p string) string {
+	if p == "-" {
+		return p
+	}
+	a, err := filepath.Abs(p)
+	if err != nil {
+		return p
+	}
+	if r, err := filepath.EvalSymlinks(a); err == nil {
+		return r
+	}
+	return a
+}
+
+// Fingerprint returns "sha256:" and the hex SHA-256 of data.
+func Fingerprint(data []byte) string {
+	h := sha256.Sum256(data)
+	return "sha256:" + hex.EncodeToString(h[:])
+}
+
+// FingerprintFile returns the fingerprint of the file at path, read in a
+// streaming pass.
+func FingerprintFile(path string) (string, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return "", err
+	}
+	defer f.Close()
+	h := sha256.New()
+	if _, err := io.Copy(h, f); err != nil {
+		return "", err
+	}
+	return "sha256:" + hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// IsOwnOutput reports whether head, the first bytes of a file, carries the
+// schema marker of a rootshift document (a record of a previous run).
+func IsOwnOutput(head []byte) bool {
+	if len(head) > 4096 {
+		head = head[:4096]
+	}
+	return bytes.Contains(head, []byte(`"schema":"rootshift.`)) || bytes.Contains(head, []byte(`"schema": "rootshift.`))
+}
 
 // InShard reports whether id belongs to shard i (1-based) of n, by the
 // 64-bit FNV-1a hash of the id.
@@ -138,7 +217,10 @@ func InShard(id string, i, n int) bool {
 // task is one series to analyse, or one failure to report.
 type task struct {
 	seq    int
+	index  int // 1-based position among every series read
 	source string
+	path   string // canonical path ("stdin" for standard input)
+	fp     string
 	freq   string
 	in     dataset.Series
 	fail   error
@@ -158,111 +240,67 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 	if err := CheckInputs(cfg.Inputs); err != nil {
 		return Summary{}, err
 	}
-	jobs := cfg.Jobs
-	if jobs <= 0 {
-		jobs = runtime.GOMAXPROCS(0)
-	}
-	parent := ctx
-	ctx, cancel := context.WithCancel(ctx)
-	defer cancel()
-	// In-flight bound: the producer blocks when 4*jobs series are read but
-	// not yet written, so memory does not grow with the input.
-	inflight := make(chan struct{}, 4*jobs)
-	tasks := make(chan task)
-	type done struct {
-		seq int
-		rec Record
-	}
-	results := make(chan done, jobs)
 	var sum Summary
 	var sumMu sync.Mutex
-	var prodErr error
-	go func() {
-		defer close(tasks)
-		seq := 0
-		emit := func(t task) bool {
+	prod := func(ctx context.Context, emit func(task) bool) error {
+		return produce(ctx, cfg, func(t task) bool {
 			id := ID(t.source, t.in.Name)
 			sumMu.Lock()
 			sum.Read++
-			skip := !InShard(id, cfg.Shard, cfg.Shards) || cfg.Skip[id]
+			t.index = sum.Read
+			// Records of earlier versions carry no canonical path: they
+			// match by the path as given (ID).
+			skip := !InShard(id, cfg.Shard, cfg.Shards) || cfg.Skip[Key(t.path, t.in.Name)] || cfg.Skip[id]
 			if skip {
 				sum.Skipped++
 			}
 			sumMu.Unlock()
-			if skip {
-				return true
-			}
-			select {
-			case inflight <- struct{}{}:
-			case <-ctx.Done():
-				return false
-			}
-			t.seq = seq
-			seq++
-			select {
-			case tasks <- t:
-				return true
-			case <-ctx.Done():
-				return false
-			}
-		}
-		prodErr = produce(ctx, cfg, emit, &sum, &sumMu)
-	}()
-	var wg sync.WaitGroup
-	opt := &battery.Options{Cache: cfg.Cache, Workers: 1}
-	for w := 0; w < jobs; w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for t := range tasks {
-				doc := battery.NewDocument(cfg.Settings)
-				doc.Source = &schema.Source{Name: t.source, Rows: len(t.in.Values), Frequency: t.freq, Notes: battery.SchemaNotes(t.notes)}
-				var sr schema.Series
-				if t.fail != nil {
-					sr = battery.FailedSeries(t.in.Name, t.freq, cfg.Settings, t.fail)
-					sr.Notes = battery.SchemaNotes(t.in.Notes)
-				} else {
-					var err error
-					sr, err = battery.AnalyzeSeries(ctx, t.in, cfg.Settings, opt)
-					if err != nil {
-						cancel()
-						continue
-					}
-				}
-				if cfg.Lean {
-					for i := range sr.Results {
-						lean(&sr.Results[i])
-					}
-					if v := sr.Verdict; v != nil && v.Window != nil && v.Window.Known != nil {
-						lean(v.Window.Known)
-					}
-				}
-				doc.Series = []schema.Series{sr}
-				rec := Record{ID: ID(t.source, t.in.Name), Doc: doc, Input: t.in}
-				select {
-				case results <- done{t.seq, rec}:
-				case <-ctx.Done():
-					return
-				}
-			}
-		}()
+			return skip || emit(t)
+		}, &sum, &sumMu)
 	}
-	go func() { wg.Wait(); close(results) }()
-
-	// Writer: in input order (a small reorder buffer bounded by the
-	// in-flight limit) or as completed.
-	pending := map[int]Record{}
-	next := 0
-	var sinkErr error
-	write := func(r Record) {
-		<-inflight
-		if sinkErr != nil {
-			return
+	opt := &battery.Options{Cache: cfg.Cache, Workers: 1}
+	maxObs := cfg.MaxObs
+	if maxObs == 0 {
+		maxObs = DefaultMaxObs
+	}
+	work := func(ctx context.Context, t task) (Record, error) {
+		doc := battery.NewDocument(cfg.Settings)
+		doc.Source = &schema.Source{Name: t.source, Rows: len(t.in.Values), Frequency: t.freq, Notes: battery.SchemaNotes(t.notes), Fingerprint: t.fp, Index: t.index}
+		if t.path != "stdin" {
+			doc.Source.Path = t.path
 		}
+		if t.fail == nil && maxObs > 0 && len(t.in.Values) > maxObs {
+			t.fail = &dataset.SeriesError{Series: t.in.Name, Err: fmt.Errorf("%w: %d observations, the limit is %d (raise it with --max-obs)", ErrTooLong, len(t.in.Values), maxObs)}
+			t.in.Values, t.in.Dates = nil, nil
+		}
+		var sr schema.Series
+		if t.fail != nil {
+			sr = battery.FailedSeries(t.in.Name, t.freq, cfg.Settings, t.fail)
+			sr.Notes = battery.SchemaNotes(t.in.Notes)
+		} else {
+			var err error
+			sr, err = AnalyzeSeries(ctx, t.in, cfg.Settings, opt)
+			if err != nil {
+				return Record{}, err
+			}
+		}
+		if cfg.Lean {
+			for i := range sr.Results {
+				lean(&sr.Results[i])
+			}
+			if v := sr.Verdict; v != nil && v.Window != nil && v.Window.Known != nil {
+				lean(v.Window.Known)
+			}
+		}
+		if cfg.CompactArrays {
+			CompactArrays(&sr)
+		}
+		doc.Series = []schema.Series{sr}
+		return Record{ID: ID(t.source, t.in.Name), Key: Key(t.path, t.in.Name), Doc: doc, Input: t.in}, nil
+	}
+	write := func(r Record) error {
 		if err := sink(r); err != nil {
-			sinkErr = err
-			cancel()
-			return
+			return err
 		}
 		sumMu.Lock()
 		if len(r.Doc.Series[0].Errors) > 0 {
@@ -276,99 +314,116 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 			s.Elapsed = time.Since(start)
 			cfg.Progress(s)
 		}
+		return nil
 	}
-	for d := range results {
-		if cfg.Completed {
-			write(d.rec)
-			continue
-		}
-		pending[d.seq] = d.rec
-		for {
-			p, ok := pending[next]
-			if !ok {
-				break
-			}
-			delete(pending, next)
-			next++
-			write(p)
-		}
-	}
-	// Anything left (only after cancellation) in sequence order.
-	keys := make([]int, 0, len(pending))
-	for k := range pending {
-		keys = append(keys, k)
-	}
-	sort.Ints(keys)
-	for _, k := range keys {
-		write(pending[k])
-	}
+	err := Pool(ctx, cfg.Jobs, cfg.Completed, prod, work, write)
 	sum.Elapsed = time.Since(start)
-	if sinkErr != nil {
-		return sum, sinkErr
+	if cerr := ctx.Err(); cerr != nil && (err == nil || errors.Is(err, core.ErrCancelled) || errors.Is(err, context.Canceled)) {
+		return sum, fmt.Errorf("%w: %v", core.ErrCancelled, cerr)
 	}
-	if err := parent.Err(); err != nil {
-		return sum, fmt.Errorf("%w: %v", core.ErrCancelled, err)
-	}
-	return sum, prodErr
+	return sum, err
 }
 
 // produce reads the inputs in order and emits one task per series (or per
 // unreadable input). It returns only for cancellation or standard-input
 // errors; unreadable files become failure records.
 func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary, mu *sync.Mutex) error {
-	paths, err := expand(cfg.Inputs)
+	note := cfg.Note
+	if note == nil {
+		note = func(string) {}
+	}
+	paths, err := Expand(cfg.Inputs, cfg.Exclude, note)
 	if err != nil {
 		return err
-	}
-	badInput := func(name string, err error) bool {
-		mu.Lock()
-		sum.BadInputs++
-		mu.Unlock()
-		return emit(task{source: name, in: dataset.Series{Name: filepath.Base(name)}, fail: err})
 	}
 	for _, p := range paths {
 		if ctx.Err() != nil {
 			return nil
 		}
+		name, canon, fp := p, Canonical(p), ""
+		badInput := func(err error) bool {
+			mu.Lock()
+			sum.BadInputs++
+			mu.Unlock()
+			return emit(task{source: name, path: canon, fp: fp, in: dataset.Series{Name: filepath.Base(name)}, fail: err})
+		}
+		emitT := func(t task) bool {
+			t.path, t.fp = canon, fp
+			return emit(t)
+		}
 		var r io.Reader
-		name := p
 		var f *os.File
+		var data []byte
 		if p == "-" {
-			r, name = cfg.Stdin, "stdin"
+			r, name, canon = cfg.Stdin, "stdin", "stdin"
 			if r == nil {
 				r = os.Stdin
 			}
-		} else if cfg.Kind == KindLong || cfg.Kind == KindJSONL {
-			f, err = os.Open(p)
+		} else {
+			if cfg.Kind == KindLong || cfg.Kind == KindJSONL {
+				// A streaming pass for the fingerprint, then the reading pass:
+				// memory stays bounded by the series in flight.
+				fp, err = FingerprintFile(p)
+				if err == nil {
+					f, err = os.Open(p)
+				}
+				if err == nil {
+					br := bufio.NewReaderSize(f, 1<<16)
+					head, _ := br.Peek(4096)
+					if IsOwnOutput(head) {
+						f.Close()
+						note(fmt.Sprintf("%s: skipped, it is an output of rootshift (schema marker)", p))
+						continue
+					}
+					r = br
+				}
+			} else {
+				data, err = os.ReadFile(p)
+				if err == nil {
+					fp = Fingerprint(data)
+					if IsOwnOutput(data) {
+						note(fmt.Sprintf("%s: skipped, it is an output of rootshift (schema marker)", p))
+						continue
+					}
+				}
+			}
 			if err != nil {
-				if !badInput(p, err) {
+				if !badInput(err) {
 					return nil
 				}
 				continue
 			}
-			r = bufio.NewReaderSize(f, 1<<16)
 		}
 		var ok bool
 		switch cfg.Kind {
 		case KindLong:
-			ok = streamTables(ctx, name, cfg, emit, badInput, r, true)
+			ok = streamTables(ctx, name, cfg, emitT, badInput, r, true)
 		case KindJSONL:
-			ok = streamTables(ctx, name, cfg, emit, badInput, r, false)
+			ok = streamTables(ctx, name, cfg, emitT, badInput, r, false)
 		default:
-			var t *dataset.Table
 			if p == "-" {
-				data, rerr := io.ReadAll(r)
+				var rerr error
+				data, rerr = io.ReadAll(r)
 				if rerr != nil {
 					return rerr
 				}
-				t, err = dataset.Parse(name, data, dataset.OptionsFor(cfg.Settings))
-			} else {
-				t, err = dataset.ReadFile(p, dataset.OptionsFor(cfg.Settings))
 			}
-			if err != nil {
-				ok = badInput(name, err)
+			var t *dataset.Table
+			opt := dataset.OptionsFor(cfg.Settings)
+			if p != "-" && strings.EqualFold(filepath.Ext(p), ".xlsx") {
+				t, err = dataset.ReadXLSX(filepath.Base(p), data, opt)
 			} else {
-				ok = emitTable(name, t, cfg, emit)
+				base := name
+				if p != "-" {
+					base = filepath.Base(p)
+				}
+				t, err = dataset.Parse(base, data, opt)
+			}
+			data = nil
+			if err != nil {
+				ok = badInput(err)
+			} else {
+				ok = emitTable(name, t, cfg, emitT)
 			}
 		}
 		if f != nil {
@@ -382,7 +437,7 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 }
 
 // streamTables reads one-series tables from a long or JSON Lines stream.
-func streamTables(ctx context.Context, name string, cfg Config, emit func(task) bool, bad func(string, error) bool, r io.Reader, long bool) bool {
+func streamTables(ctx context.Context, name string, cfg Config, emit func(task) bool, bad func(error) bool, r io.Reader, long bool) bool {
 	var next func() (*dataset.Table, error)
 	if long {
 		lo := cfg.Long
@@ -391,7 +446,7 @@ func streamTables(ctx context.Context, name string, cfg Config, emit func(task) 
 		}
 		lr, err := dataset.NewLongReader(r, lo)
 		if err != nil {
-			return bad(name, err)
+			return bad(err)
 		}
 		next = lr.Next
 	} else {
@@ -465,8 +520,41 @@ func emitTable(source string, t *dataset.Table, cfg Config, emit func(task) bool
 	return true
 }
 
-// expand replaces directories by their data files, in name order.
-func expand(inputs []string) ([]string, error) {
+// Expand replaces directories by their data files (.csv, .tsv, .txt,
+// .xlsx, .jsonl), in name order. It leaves out, with a note: paths whose
+// canonical form is in exclude (the run's own outputs), and non-regular
+// files in a directory (named pipes, sockets, devices), which could block
+// the run or never end; a pipe or character device named explicitly (such
+// as /dev/fd/N from a shell's process substitution) is read, a socket is
+// not. A path that cannot be examined stays in the list: reading it yields
+// a failure record.
+func Expand(inputs, exclude []string, note func(string)) ([]string, error) {
+	if note == nil {
+		note = func(string) {}
+	}
+	excluded := func(p string) bool {
+		if len(exclude) == 0 {
+			return false
+		}
+		c := Canonical(p)
+		for _, x := range exclude {
+			if c == x {
+				return true
+			}
+		}
+		return false
+	}
+	keep := func(p string, st fs.FileInfo) bool {
+		switch {
+		case excluded(p):
+			note(fmt.Sprintf("%s: skipped, it is an output of this run", p))
+			return false
+		case !st.Mode().IsRegular():
+			note(fmt.Sprintf("%s: skipped, not a regular file (%s)", p, kindOf(st.Mode())))
+			return false
+		}
+		return true
+	}
 	var out []string
 	for _, in := range inputs {
 		if in == "-" {
@@ -474,10 +562,22 @@ func expand(inputs []string) ([]string, error) {
 			continue
 		}
 		st, err := os.Stat(in)
-		if err != nil || !st.IsDir() {
-			// A file, or a path Stat cannot see into (missing paths were
-			// refused by CheckInputs): reading it yields a failure record.
+		if err != nil {
+			// A path Stat cannot see into (missing paths were refused by
+			// CheckInputs): reading it yields a failure record.
 			out = append(out, in)
+			continue
+		}
+		if !st.IsDir() {
+			// A pipe or a character device named explicitly is read: the
+			// user asked for it ("batch <(command)" passes /dev/fd/N).
+			// Sockets cannot be read as files.
+			m := st.Mode()
+			if named := m&fs.ModeNamedPipe != 0 || m&fs.ModeCharDevice != 0; named && !excluded(in) {
+				out = append(out, in)
+			} else if keep(in, st) {
+				out = append(out, in)
+			}
 			continue
 		}
 		ents, err := os.ReadDir(in)
@@ -486,12 +586,33 @@ func expand(inputs []string) ([]string, error) {
 		}
 		for _, e := range ents {
 			ext := strings.ToLower(filepath.Ext(e.Name()))
-			if !e.IsDir() && (ext == ".csv" || ext == ".tsv" || ext == ".txt" || ext == ".xlsx" || ext == ".jsonl") {
-				out = append(out, filepath.Join(in, e.Name()))
+			if e.IsDir() || !(ext == ".csv" || ext == ".tsv" || ext == ".txt" || ext == ".xlsx" || ext == ".jsonl") {
+				continue
+			}
+			p := filepath.Join(in, e.Name())
+			st, err := os.Stat(p)
+			if err != nil {
+				out = append(out, p)
+				continue
+			}
+			if !st.IsDir() && keep(p, st) {
+				out = append(out, p)
 			}
 		}
 	}
 	return out, nil
+}
+
+func kindOf(m fs.FileMode) string {
+	switch {
+	case m&fs.ModeNamedPipe != 0:
+		return "a named pipe"
+	case m&fs.ModeSocket != 0:
+		return "a socket"
+	case m&fs.ModeDevice != 0 || m&fs.ModeCharDevice != 0:
+		return "a device"
+	}
+	return "special file"
 }
 
 func lean(r *schema.Result) {
@@ -515,34 +636,68 @@ func JSONLSink(w io.Writer) Sink {
 	}
 }
 
-// DoneIDs reads an existing JSON Lines output and returns the ids of the
-// series it holds, and the byte length of its complete lines (a run killed
-// mid-write can leave a partial last line, which the caller truncates).
+// DoneIDs reads an existing JSON Lines output and returns the keys (Key;
+// records without a path use the source name) of the series it holds, and
+// the byte length of its complete lines (a run killed mid-write can leave a
+// partial last line, which the caller truncates).
 func DoneIDs(r io.Reader) (map[string]bool, int64, error) {
-	done := map[string]bool{}
+	ex, err := ReadExisting(r, nil)
+	return ex.Keys, ex.Good, err
+}
+
+// Existing describes the records already in an output file.
+type Existing struct {
+	// Keys of the series held (Key).
+	Keys map[string]bool
+	// Good is the byte length of the complete, valid lines.
+	Good int64
+	// Records is the number of complete records.
+	Records int
+	// Settings of the first record (nil for an empty file).
+	Settings *schema.Settings
+	// Fingerprints maps each input's canonical path to the fingerprint its
+	// records carry.
+	Fingerprints map[string]string
+}
+
+// ReadExisting reads an existing JSON Lines output (see DoneIDs). Each
+// complete line is passed to line, when not nil, with its parsed document.
+func ReadExisting(r io.Reader, line func(raw []byte, doc *schema.Document) error) (Existing, error) {
+	ex := Existing{Keys: map[string]bool{}, Fingerprints: map[string]string{}}
 	br := bufio.NewReaderSize(r, 1<<16)
-	var good int64
 	for {
-		line, err := br.ReadBytes('\n')
-		if len(line) > 0 && line[len(line)-1] == '\n' {
-			var rec struct {
-				Source *schema.Source `json:"source"`
-				Series []struct {
-					Name string `json:"name"`
-				} `json:"series"`
+		raw, err := br.ReadBytes('\n')
+		if len(raw) > 0 && raw[len(raw)-1] == '\n' {
+			var doc schema.Document
+			if jerr := json.Unmarshal(bytes.TrimSpace(raw), &doc); jerr != nil || doc.Source == nil || len(doc.Series) != 1 || !strings.HasPrefix(doc.Schema, "rootshift.results/") {
+				return ex, fmt.Errorf("resume: output line at byte %d is not a rootshift record", ex.Good)
 			}
-			if jerr := json.Unmarshal(bytes.TrimSpace(line), &rec); jerr == nil && rec.Source != nil && len(rec.Series) == 1 {
-				done[ID(rec.Source.Name, rec.Series[0].Name)] = true
-				good += int64(len(line))
-			} else {
-				return done, good, fmt.Errorf("resume: output line at byte %d is not a rootshift record", good)
+			src := doc.Source
+			path := src.Path
+			if path == "" {
+				path = src.Name
 			}
+			ex.Keys[Key(path, doc.Series[0].Name)] = true
+			if src.Path != "" && src.Fingerprint != "" {
+				ex.Fingerprints[src.Path] = src.Fingerprint
+			}
+			if ex.Settings == nil {
+				st := doc.Settings
+				ex.Settings = &st
+			}
+			if line != nil {
+				if err := line(raw, &doc); err != nil {
+					return ex, err
+				}
+			}
+			ex.Good += int64(len(raw))
+			ex.Records++
 		}
 		if err == io.EOF {
-			return done, good, nil
+			return ex, nil
 		}
 		if err != nil {
-			return done, good, err
+			return ex, err
 		}
 	}
 }

@@ -11,6 +11,18 @@
 // One JSON Lines record per series: a schema v1 document ("schema",
 // "version", "settings", "source", "series", "caution") holding exactly one
 // series — the same fields `rootshift test --json` writes, for one series.
-// The series id used for resuming and sharding is "SOURCE:NAME" where SOURCE
-// is the file name (or the stream's name) and NAME the series name.
+// The series id used for sharding and in the side files is "SOURCE:NAME"
+// where SOURCE is the file name as given (or the stream's name) and NAME the
+// series name. Resuming matches series by key, the input's canonical path
+// (absolute, links resolved) and NAME, and checks each input's content
+// fingerprint (source.path and source.fingerprint in the records), so that
+// the same directory named two ways is not run twice. source.index, the
+// series' position among all series read, lets `batch merge` restore the
+// input order of shard outputs and find missing series.
+//
+// Inputs that are not regular files (named pipes, sockets, devices), files
+// that carry the schema marker of a rootshift document and the run's own
+// outputs (Config.Exclude) are skipped with a note (Config.Note). Pool is the
+// ordered worker pool shared with `rootshift test`; AnalyzeSeries adds the
+// magnitude guard and the no-verdict rule to the battery's analysis.
 package batch

@@ -55,7 +55,7 @@ func Validate(s schema.Settings) error {
 		return usage("max_lags", "%d: want 0..1000", *s.MaxLags)
 	}
 	if s.Bandwidth != nil && (*s.Bandwidth < 0 || math.IsNaN(*s.Bandwidth) || *s.Bandwidth > 1e6) {
-		return usage("bandwidth", "%g: want a non-negative number", *s.Bandwidth)
+		return usage("bandwidth", "%g: want a bandwidth from 0 to 1e6 (0: no autocovariances; leave it out for the automatic choice)", *s.Bandwidth)
 	}
 	if _, err := core.ParseKernel(s.Kernel); err != nil {
 		return usage("kernel", "%q: want bartlett or qs", s.Kernel)

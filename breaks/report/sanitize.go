@@ -218,56 +218,53 @@ func noFolders(s string) string {
 // every control character visible.
 func outText(s string) string { return noFolders(visible(s)) }
 
-// exportDoc is doc as the JSON writers export it: the source's base name
-// only, and no folder of a file path in the series' errors and warnings.
-// It returns doc itself when there is nothing to change, else a shallow copy
-// (doc is never modified).
-func exportDoc(doc *schema.Document) *schema.Document {
-	dirty := doc.Source != nil && SafeName(doc.Source.Name) != doc.Source.Name
-	seriesDirty := func(s *schema.Series) bool {
-		for _, e := range s.Errors {
-			if noFolders(e.Message) != e.Message {
-				return true
-			}
-		}
-		for _, w := range s.Warnings {
-			if noFolders(w) != w {
-				return true
-			}
-		}
-		return false
+// exportSource and exportSeries give a document's parts as the JSON
+// writers export them: the source's base name only, and no folder of a file
+// path in the series' errors and warnings.
+
+// exportSource is src as exported (its base name only): src itself when
+// there is nothing to change, else a copy.
+func exportSource(src *schema.Source) *schema.Source {
+	if src == nil || SafeName(src.Name) == src.Name {
+		return src
 	}
-	for i := range doc.Series {
-		if dirty {
-			break
+	out := *src
+	out.Name = SafeName(src.Name)
+	return &out
+}
+
+// seriesDirty reports a series whose errors or warnings name a folder.
+func seriesDirty(s *schema.Series) bool {
+	for _, e := range s.Errors {
+		if noFolders(e.Message) != e.Message {
+			return true
 		}
-		dirty = seriesDirty(&doc.Series[i])
 	}
-	if !dirty {
-		return doc
-	}
-	out := *doc
-	if doc.Source != nil {
-		src := *doc.Source
-		src.Name = SafeName(src.Name)
-		out.Source = &src
-	}
-	out.Series = append([]schema.Series(nil), doc.Series...)
-	for i := range out.Series {
-		s := &out.Series[i]
-		if !seriesDirty(s) {
-			continue
+	for _, w := range s.Warnings {
+		if noFolders(w) != w {
+			return true
 		}
-		errs := append([]schema.Error(nil), s.Errors...)
-		for j := range errs {
-			errs[j].Message = noFolders(errs[j].Message)
-		}
-		s.Errors = errs
-		ws := append([]string(nil), s.Warnings...)
-		for j := range ws {
-			ws[j] = noFolders(ws[j])
-		}
-		s.Warnings = ws
 	}
+	return false
+}
+
+// exportSeries is s as exported (no folder of a file path in its errors
+// and warnings): s itself when there is nothing to change, else a shallow
+// copy (s is never modified).
+func exportSeries(s *schema.Series) *schema.Series {
+	if !seriesDirty(s) {
+		return s
+	}
+	out := *s
+	errs := append([]schema.Error(nil), s.Errors...)
+	for j := range errs {
+		errs[j].Message = noFolders(errs[j].Message)
+	}
+	out.Errors = errs
+	ws := append([]string(nil), s.Warnings...)
+	for j := range ws {
+		ws[j] = noFolders(ws[j])
+	}
+	out.Warnings = ws
 	return &out
 }

@@ -121,7 +121,7 @@ func TestBatchEndToEnd(t *testing.T) {
 	dir, wantFailed := makeBatchDir(t)
 	out := filepath.Join(t.TempDir(), "full.jsonl")
 	start := time.Now()
-	code, _, stderr := runCLI(t, "", "batch", "-j", "2", "--quiet", "-o", out, dir)
+	code, _, stderr := runCLI(t, "", "batch", "-j", "2", "--quiet", "-o", out, "--csv", out+".csv", "--verdicts", out+".v.csv", dir)
 	t.Logf("full run: %.1f s", time.Since(start).Seconds())
 	if code != 1 {
 		t.Fatalf("exit status %d, want 1 (some series fail); stderr: %s", code, stderr)
@@ -186,7 +186,7 @@ func TestBatchEndToEnd(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		cmd := exec.Command(exe, "batch", "-j", "2", "--quiet", "-o", p, dir)
+		cmd := exec.Command(exe, "batch", "-j", "2", "--quiet", "-o", p, "--csv", p+".csv", "--verdicts", p+".v.csv", dir)
 		cmd.Env = append(os.Environ(), "ROOTSHIFT_AS_CLI=1")
 		if err := cmd.Start(); err != nil {
 			t.Fatal(err)
@@ -205,7 +205,7 @@ func TestBatchEndToEnd(t *testing.T) {
 		if partial >= batchRecords {
 			t.Skipf("the run finished before it could be killed (%d records)", partial)
 		}
-		code, _, stderr := runCLI(t, "", "batch", "-j", "2", "--quiet", "--resume", "-o", p, dir)
+		code, _, stderr := runCLI(t, "", "batch", "-j", "2", "--quiet", "--resume", "-o", p, "--csv", p+".csv", "--verdicts", p+".v.csv", dir)
 		if code != 1 {
 			t.Fatalf("resumed run: exit status %d, want 1; %s", code, stderr)
 		}
@@ -215,6 +215,16 @@ func TestBatchEndToEnd(t *testing.T) {
 		slices.Sort(got)
 		if !slices.Equal(a, got) {
 			t.Fatalf("killed after %d records and resumed: %d records, differ from the uninterrupted run", partial, len(got))
+		}
+		// The side files are rebuilt from the records kept, then extended:
+		// they equal the uninterrupted run's (after sorting).
+		for _, ext := range []string{".csv", ".v.csv"} {
+			a, b := readLines(t, out+ext), readLines(t, p+ext)
+			slices.Sort(a)
+			slices.Sort(b)
+			if !slices.Equal(a, b) {
+				t.Errorf("%s after kill and resume: %d lines, the uninterrupted run has %d", ext, len(b), len(a))
+			}
 		}
 		t.Logf("killed after %d complete records; resumed run completed the rest", partial)
 	})

@@ -1,8 +1,12 @@
 package main
 
 import (
+	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
+	"runtime"
+	"sync/atomic"
 	"time"
 
 	"github.com/rootshift/rootshift/breaks"
@@ -62,14 +66,18 @@ func (e *env) critical(args []string) int {
 	var s schema.Settings
 	var id string
 	var n int
-	var asJSON, quiet bool
+	var asJSON, quiet, force bool
 	fs := newFlagSet("critical", e.stdout, "Usage: rootshift critical --test ID [--shift ...] [--trend ...] --n T --sims N --seed S [--json]\n\nSimulates the test's null distribution at sample size T (Gaussian random walk\nunless the test defines its own null) and prints its quantiles and critical values\nwith Monte Carlo standard errors, under the lag rule, maximum lag and trimming it states.")
 	settingsFlags(fs, &s)
 	fs.StringVar(&id, "test", "", "test `id` (required; \"rootshift tests\" lists them)")
 	fs.IntVar(&n, "n", 0, "sample size `T` (required)")
 	fs.BoolVar(&asJSON, "json", false, "print JSON")
 	fs.BoolVar(&quiet, "quiet", false, "no progress on standard error")
+	fs.BoolVar(&force, "force", false, fmt.Sprintf("run even when the estimate exceeds the limits (%.0f GB of memory, %s)", criticalMemLimit/(1<<30), criticalTimeLimit))
 	if _, err := parseInterleaved(fs, args); err != nil {
+		return e.usageExit(err)
+	}
+	if err := checkGivenZeros(fs); err != nil {
 		return e.usageExit(err)
 	}
 	if s.Sims == 0 {
@@ -86,24 +94,83 @@ func (e *env) critical(args []string) int {
 		return e.usageExit(err)
 	}
 	cfg := battery.Config(s, id, nil)
-	// "\r" progress only on a terminal: in a log file or a pipe it would
-	// leave a run of overwritten lines.
-	if !quiet && isTerminal(e.stderr) {
-		cfg.Progress = func(done, total int) {
-			if done == total || done%(max(total/20, 64)) < 64 {
-				fmt.Fprintf(e.stderr, "\rsimulating %s, T=%d: %d/%d", id, n, done, total)
+	workers := runtime.GOMAXPROCS(0)
+	if est := criticalMemory(n, workers); est > criticalMemLimit && !force {
+		return e.usageExit(fmt.Errorf("critical: --n %d needs about %.1f GB of memory (%d workers x T x %d bytes); the limit is %.0f GB: a smaller --n, or --force to run anyway",
+			n, est/(1<<30), workers, criticalBytesPerObs, criticalMemLimit/(1<<30)))
+	}
+	var printed int64 = -1
+	var done atomic.Int64
+	onTerminal := !quiet && isTerminal(e.stderr)
+	cfg.Progress = func(d, total int) {
+		done.Store(int64(d))
+		switch {
+		case onTerminal:
+			// "\r" progress only on a terminal: in a log file or a pipe it
+			// would leave a run of overwritten lines.
+			if d == total || d%(max(total/20, 64)) < 64 {
+				fmt.Fprintf(e.stderr, "\rsimulating %s, T=%d: %d/%d", id, n, d, total)
 			}
-			if done == total {
+			if d == total {
 				fmt.Fprintln(e.stderr)
+			}
+		case !quiet && atomic.LoadInt64(&printed) >= 0:
+			// Plain lines at every tenth once the work was announced.
+			if step := int64(10 * d / total); step > atomic.LoadInt64(&printed) {
+				atomic.StoreInt64(&printed, step)
+				fmt.Fprintf(e.stderr, "rootshift: simulating %s, T=%d: %d/%d replications\n", id, n, d, total)
 			}
 		}
 	}
 	start := time.Now()
-	d, err := core.SimulateTest(e.ctx, info, n, cfg, core.SimSpec{Reps: s.Sims, Seed: s.Seed, Progress: cfg.Progress})
+	ctx, cancel := context.WithCancelCause(e.ctx)
+	defer cancel(nil)
+	// The watchdog estimates the run time from the progress after 2 s:
+	// above 5 s it prints the estimate; above the limit it stops the run
+	// unless --force.
+	watchDone := make(chan struct{})
+	defer close(watchDone)
+	go func() {
+		tick := time.NewTicker(2 * time.Second)
+		defer tick.Stop()
+		for {
+			select {
+			case <-watchDone:
+				return
+			case <-tick.C:
+			}
+			el := time.Since(start).Seconds()
+			d := done.Load()
+			est, lower := 0.0, false
+			if d > 0 {
+				est = el * float64(s.Sims) / float64(d)
+			} else {
+				// Not one replication per worker yet: a lower bound.
+				est, lower = el*float64(s.Sims)/float64(workers), true
+			}
+			if est > criticalTimeLimit.Seconds() && !force {
+				cancel(fmt.Errorf("%w: estimated %s for %d replications at T=%d, above the limit of %s: fewer --sims, a smaller --n, or --force to run anyway",
+					errTooLong, fmtDuration(est, lower), s.Sims, n, criticalTimeLimit))
+				return
+			}
+			if !lower && atomic.LoadInt64(&printed) < 0 {
+				if est > 5 && !quiet {
+					fmt.Fprintf(e.stderr, "rootshift: critical %s at T=%d: estimated %s for %d replications\n", id, n, fmtDuration(est, false), s.Sims)
+				}
+				atomic.StoreInt64(&printed, int64(10*d/int64(s.Sims)))
+				return
+			}
+		}
+	}()
+	d, err := core.SimulateTest(ctx, info, n, cfg, core.SimSpec{Reps: s.Sims, Seed: s.Seed, Progress: cfg.Progress})
 	if err != nil {
+		if cause := context.Cause(ctx); errors.Is(cause, errTooLong) {
+			e.errorf("critical: %v", cause)
+			return exitUsage
+		}
 		e.errorf("critical: %v", err)
 		if e.ctx.Err() != nil {
-			return exitCancel
+			return e.cancelStatus()
 		}
 		return exitFailed
 	}
@@ -191,6 +258,32 @@ func (e *env) critical(args []string) int {
 		fmt.Fprintf(e.stdout, "  %-6s %10.4f   %8.4f\n", fmt.Sprintf("%g%%", 100*p), out.CriticalValues[k], out.CriticalStdErrors[k])
 	}
 	return exitOK
+}
+
+// Limits of `critical` without --force.
+const (
+	criticalMemLimit  = 2.0 * (1 << 30) // bytes
+	criticalTimeLimit = time.Hour
+	// criticalBytesPerObs bounds the memory of one replication per
+	// observation (the simulated series, its differences and the test's
+	// work space; measured at T = 20000: 115 B for adf, 330 B for za with 2
+	// workers, so this is about twice the largest).
+	criticalBytesPerObs = 256
+)
+
+var errTooLong = errors.New("too long")
+
+// criticalMemory estimates the memory of a simulation at sample size n.
+func criticalMemory(n, workers int) float64 {
+	return float64(workers) * float64(n) * criticalBytesPerObs
+}
+
+func fmtDuration(sec float64, atLeast bool) string {
+	s := (time.Duration(sec) * time.Second).Round(time.Second).String()
+	if atLeast {
+		return "at least " + s
+	}
+	return s
 }
 
 func nullDGP(info core.Info) string {

@@ -161,3 +161,29 @@ func checkFormat(f string) error {
 	}
 	return fmt.Errorf("--format %q: want one of %s", f, strings.Join(report.Formats, ", "))
 }
+
+// givenZeroRanges are the settings whose zero value means "the default" in
+// schema.Settings: given explicitly as 0 on the command line they would
+// silently run with the default, so they are refused with their valid range.
+var givenZeroRanges = map[string]string{
+	"trim":       "--trim 0: want a trimming fraction from 0.01 to below 0.5 (leave it out for the default 0.15)",
+	"level":      "--level 0: want a significance level above 0 and below 0.5 (leave it out for the default 0.05)",
+	"max-breaks": "--max-breaks 0: want 1..10 breaks (leave it out for the default 5; --tests without bp runs no break-count search)",
+	"min-window": "--min-window 0: want a fraction above 0 and below 1 (leave it out for the default 0.01+1.8/sqrt(T))",
+}
+
+// checkGivenZeros refuses the flags of givenZeroRanges given as 0: the
+// flag package tells "not given" (not visited) from "given as 0".
+func checkGivenZeros(fs *flag.FlagSet) error {
+	var err error
+	fs.Visit(func(f *flag.Flag) {
+		msg, ok := givenZeroRanges[f.Name]
+		if !ok || err != nil {
+			return
+		}
+		if v, perr := strconv.ParseFloat(f.Value.String(), 64); perr == nil && v == 0 {
+			err = errors.New(msg)
+		}
+	})
+	return err
+}

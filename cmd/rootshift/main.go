@@ -8,14 +8,48 @@ import (
 	"os"
 	"os/signal"
 	"strings"
+	"syscall"
 
 	"github.com/rootshift/rootshift/breaks/battery"
 )
 
 func main() {
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
-	defer stop()
-	os.Exit(run(ctx, os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+	os.Exit(run(signalContext(), os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+}
+
+// signalContext is cancelled by SIGINT or SIGTERM, with the signal as its
+// cause (see cancelStatus); a second signal exits at once.
+func signalContext() context.Context {
+	ctx, cancel := context.WithCancelCause(context.Background())
+	sig := make(chan os.Signal, 1)
+	signal.Notify(sig, os.Interrupt, syscall.SIGTERM)
+	go func() {
+		s := <-sig
+		if s == syscall.SIGTERM {
+			cancel(errSIGTERM)
+		} else {
+			cancel(errSIGINT)
+		}
+		// A second signal ends the process at once.
+		<-sig
+		os.Exit(exitCancel)
+	}()
+	return ctx
+}
+
+// Causes of the cancellation of the command's context.
+var (
+	errSIGINT  = errors.New("interrupted (SIGINT)")
+	errSIGTERM = errors.New("terminated (SIGTERM)")
+)
+
+// cancelStatus is the exit status after cancellation: 143 for SIGTERM,
+// 130 otherwise.
+func (e *env) cancelStatus() int {
+	if errors.Is(context.Cause(e.ctx), errSIGTERM) {
+		return exitTerm
+	}
+	return exitCancel
 }
 
 const usageText = `rootshift: does a series have a unit root, or only look like it because of a break?
@@ -38,7 +72,10 @@ const (
 	exitOK      = 0
 	exitFailed  = 1
 	exitUsage   = 2
+	exitOutput  = 3 // an output could not be written in full
+	exitNothing = 4 // nothing to process: no series in the input
 	exitCancel  = 130
+	exitTerm    = 143
 	cmdTest     = "test"
 	cmdDemo     = "demo"
 	cmdBatch    = "batch"

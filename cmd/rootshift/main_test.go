@@ -12,7 +12,7 @@ import (
 // so end-to-end tests can run it as a separate process (and kill it).
 func TestMain(m *testing.M) {
 	if os.Getenv("ROOTSHIFT_AS_CLI") == "1" {
-		os.Exit(run(context.Background(), os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+		os.Exit(run(signalContext(), os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
 	}
 	os.Exit(m.Run())
 }
@@ -24,3 +24,15 @@ func runCLI(t *testing.T, stdin string, args ...string) (int, string, string) {
 	code := run(context.Background(), args, strings.NewReader(stdin), &out, &errb)
 	return code, out.String(), errb.String()
 }
+
+// runCLIb is runCLI for benchmarks: standard output is counted, not kept.
+func runCLIb(args ...string) (int, int64, string) {
+	var out countWriter
+	var errb bytes.Buffer
+	code := run(context.Background(), args, strings.NewReader(""), &out, &errb)
+	return code, int64(out), errb.String()
+}
+
+type countWriter int64
+
+func (c *countWriter) Write(b []byte) (int, error) { *c += countWriter(len(b)); return len(b), nil }

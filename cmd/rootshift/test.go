@@ -1,14 +1,20 @@
 package main
 
 import (
+	"bufio"
 	"bytes"
+	"context"
 	"errors"
+	"flag"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
+	"runtime"
 	"strings"
+	"time"
 
+	"github.com/rootshift/rootshift/breaks/batch"
 	"github.com/rootshift/rootshift/breaks/battery"
 	"github.com/rootshift/rootshift/breaks/report"
 	"github.com/rootshift/rootshift/core"
@@ -22,19 +28,38 @@ type outputOpts struct {
 	out      string
 	progress bool
 	quiet    bool
+	jobs     int
+	indent   bool
+	compact  bool
+	force    bool
+	// compactArrays writes paths as schema.Run (JSON output).
+	compactArrays bool
+}
+
+// outputFlags binds the output and resource flags shared by test and demo.
+func outputFlags(fs *flag.FlagSet, o *outputOpts) {
+	fs.IntVar(&o.jobs, "j", 0, "`number` of series analysed in parallel (default: all cores); the output is the same for any number")
+	fs.BoolVar(&o.indent, "indent", false, "JSON: indented (the default when standard output is a terminal)")
+	fs.BoolVar(&o.compact, "compact", false, "JSON: one line (the default when the output is a file or a pipe)")
+	fs.BoolVar(&o.compactArrays, "compact-arrays", false, "JSON: candidate paths and surface rows as compact runs (path_compact: first, step, values)")
+	fs.BoolVar(&o.force, "force", false, fmt.Sprintf("test series longer than %d observations (slow and memory-hungry: about 1 GB and minutes each)", batch.DefaultMaxObs))
 }
 
 func (e *env) test(args []string) int {
 	var s schema.Settings
 	var o outputOpts
-	fs := newFlagSet("test", e.stdout, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).")
+	fs := newFlagSet("test", e.stdout, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).\nThe series are analysed in parallel; the output is in input order, the same for any -j.\n\nExit status: 0 every series tested, 1 some failed, 2 usage errors, 3 the output could not\nbe written, 4 nothing to process (empty input), 130 interrupted, 143 terminated (SIGTERM).")
 	settingsFlags(fs, &s)
 	fs.BoolVar(&o.json, "json", false, "print the JSON document (schema rootshift.results/v1); same as --format json")
 	fs.StringVar(&o.format, "format", "table", "output: "+strings.Join(report.Formats, ", "))
 	fs.StringVar(&o.out, "out", "", "write the output to this `file` instead of standard output")
 	fs.BoolVar(&o.quiet, "quiet", false, "no progress messages on standard error")
+	outputFlags(fs, &o)
 	files, err := parseInterleaved(fs, args)
 	if err != nil {
+		return e.usageExit(err)
+	}
+	if err := checkGivenZeros(fs); err != nil {
 		return e.usageExit(err)
 	}
 	if len(files) == 0 {
@@ -54,9 +79,13 @@ func (e *env) demo(args []string) int {
 	fs.StringVar(&o.format, "format", "table", "output: "+strings.Join(report.Formats, ", "))
 	fs.StringVar(&reportPath, "report", "rootshift-demo-report.html", "also write the self-contained HTML report to this `file` (\"\" for none)")
 	fs.BoolVar(&o.quiet, "quiet", false, "no progress messages on standard error")
+	outputFlags(fs, &o)
 	var data bool
 	fs.BoolVar(&data, "data", false, "print the demo data as CSV and exit")
 	if _, err := parseInterleaved(fs, args); err != nil {
+		return e.usageExit(err)
+	}
+	if err := checkGivenZeros(fs); err != nil {
 		return e.usageExit(err)
 	}
 	if data {
@@ -84,8 +113,28 @@ func (e *env) demo(args []string) int {
 	})
 }
 
-// analyzeFiles runs the analysis on each file and writes one document (the
-// series of every file, in order).
+// seriesJob is one series of a `test` call: analysed, or failed before
+// testing (fail set).
+type seriesJob struct {
+	name string // as written (file prefix added for several files)
+	in   dataset.Series
+	freq string
+	fail error
+	// source, for several files, is the series' file (its reader notes go
+	// into the series: the document has no source).
+	source *schema.Source
+}
+
+// parsedFile is one input of a `test` call, parsed.
+type parsedFile struct {
+	name  string
+	table *dataset.Table
+}
+
+// analyzeFiles analyses the series of every file with a worker pool
+// (batch.Pool, the pool of `batch`) and writes one document (the series of
+// every file, in input order). JSON is streamed series by series; the other
+// formats are written once every series is done.
 func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, after func(*schema.Document, []dataset.Series) error) int {
 	if o.json {
 		o.format = "json"
@@ -93,61 +142,208 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	if err := checkFormat(o.format); err != nil {
 		return e.usageExit(err)
 	}
+	if o.compactArrays && o.format != "json" {
+		return e.usageExit(errors.New("--compact-arrays applies to JSON output (--json); the other formats plot the paths"))
+	}
+	if o.indent && o.compact {
+		return e.usageExit(errors.New("--indent and --compact exclude each other"))
+	}
 	if err := battery.Validate(s); err != nil {
 		return e.usageExit(err)
 	}
-	opt := &battery.Options{}
+	if o.out != "" {
+		for _, f := range files {
+			if f != "-" && f != "demo:" && sameFile(f, o.out) {
+				return e.usageExit(fmt.Errorf("--out %s is also an input: it would be overwritten", o.out))
+			}
+		}
+	}
+	opt := &battery.Options{Workers: 1}
 	if !o.quiet && s.Sims > 0 && isTerminal(e.stderr) { // "\r" progress: terminals only
 		opt.Progress = progressPrinter(e.stderr)
 	}
-	var doc *schema.Document
-	var inputs []dataset.Series
+	// Every file is read and parsed before the analysis starts, so that a
+	// bad file is a usage error before any output.
+	var parsed []parsedFile
 	for _, f := range files {
 		name, data, err := e.readInput(f)
 		if err != nil {
 			e.errorf("%v", err)
 			return exitUsage
 		}
-		d, in, err := battery.AnalyzeText(e.ctx, name, data, s, opt)
+		if len(bytes.TrimSpace(data)) == 0 {
+			e.errorf("%s: nothing to process: the input is empty (exit status %d)", name, exitNothing)
+			return exitNothing
+		}
+		dopt := dataset.OptionsFor(s)
+		var t *dataset.Table
+		if strings.HasSuffix(strings.ToLower(name), ".xlsx") {
+			t, err = dataset.ReadXLSX(name, data, dopt)
+		} else {
+			t, err = dataset.Parse(name, data, dopt)
+		}
 		if err != nil {
-			if errors.Is(err, core.ErrCancelled) || e.ctx.Err() != nil {
-				e.errorf("cancelled")
-				return exitCancel
-			}
 			e.errorf("%s: %v", name, err)
 			return exitUsage
 		}
+		parsed = append(parsed, parsedFile{name, t})
+	}
+	doc := battery.NewDocument(s)
+	if len(files) == 1 {
+		t := parsed[0].table
+		doc.Source = &schema.Source{Name: t.Name, Rows: t.Rows, DateColumn: t.DateColumn, Frequency: t.Frequency, Notes: battery.SchemaNotes(t.Notes)}
+	}
+	var jobsList []seriesJob
+	for _, pf := range parsed {
+		js, err := planSeries(pf.table, s)
+		if err != nil {
+			e.errorf("%s: %v", pf.name, err)
+			return exitUsage
+		}
 		if len(files) > 1 {
-			for i := range d.Series {
-				d.Series[i].Name = filepath.Base(name) + ":" + d.Series[i].Name
-				in[i].Name = d.Series[i].Name
-				d.Series[i].Notes = battery.WithSourceNotes(d.Source, d.Series[i].Notes) // the source is dropped below
+			src := &schema.Source{Notes: battery.SchemaNotes(pf.table.Notes)}
+			for i := range js {
+				js[i].name = filepath.Base(pf.name) + ":" + js[i].name
+				js[i].source = src // the document has no source: each series carries the file's notes
 			}
 		}
-		if doc == nil {
-			doc = d
-		} else {
-			doc.Series = append(doc.Series, d.Series...)
+		jobsList = append(jobsList, js...)
+	}
+	if len(jobsList) == 0 {
+		e.errorf("nothing to process: no series in the input (exit status %d)", exitNothing)
+		return exitNothing
+	}
+
+	if len(jobsList) == 1 {
+		opt.Workers = 0 // one series: its simulations use every core
+	}
+	// Output: JSON streams series by series; compact unless indented on
+	// request or shown on a terminal.
+	var w io.Writer = bufio.NewWriterSize(e.stdout, 1<<16)
+	var outFile *os.File
+	if o.out != "" {
+		f, err := os.CreateTemp(filepath.Dir(o.out), "."+filepath.Base(o.out)+".tmp*")
+		if err != nil {
+			e.errorf("%v", err)
+			return exitOutput
 		}
-		inputs = append(inputs, in...)
+		outFile = f
+		defer func() {
+			if outFile != nil {
+				outFile.Close()
+				os.Remove(outFile.Name())
+			}
+		}()
+		w = bufio.NewWriterSize(f, 1<<16)
 	}
-	if len(files) > 1 {
-		doc.Source = nil // several files: each series name says where it came from
+	streaming := o.format == "json" && after == nil
+	var stream *report.JSONStream
+	if streaming {
+		indent := o.indent || (!o.compact && o.out == "" && isTerminal(e.stdout))
+		var err error
+		if stream, err = report.NewJSONStream(w, doc, indent); err != nil {
+			e.errorf("%v", err)
+			return exitOutput
+		}
 	}
-	var w io.Writer = e.stdout
-	var buf bytes.Buffer
-	if o.out != "" {
-		w = &buf
+	var inputs []dataset.Series
+	failed := 0
+	start := time.Now()
+	announced := false
+	produce := func(ctx context.Context, emit func(int) bool) error {
+		for i := range jobsList {
+			if !emit(i) {
+				return nil
+			}
+		}
+		return nil
 	}
-	if err := report.Write(w, o.format, doc, inputs); err != nil {
-		e.errorf("%v", err)
-		return exitUsage
+	type done struct {
+		sr schema.Series
+		in dataset.Series
 	}
-	if o.out != "" {
-		if err := os.WriteFile(o.out, buf.Bytes(), 0o644); err != nil {
+	work := func(ctx context.Context, i int) (done, error) {
+		j := jobsList[i]
+		if j.fail == nil && !o.force && len(j.in.Values) > batch.DefaultMaxObs {
+			j.fail = fmt.Errorf("%w: %d observations, the limit is %d (add --force to test it anyway)", batch.ErrTooLong, len(j.in.Values), batch.DefaultMaxObs)
+		}
+		if j.fail != nil {
+			sr := battery.FailedSeries(j.in.Name, j.freq, s, j.fail)
+			sr.Name = j.name
+			sr.Notes = battery.WithSourceNotes(j.source, battery.SchemaNotes(j.in.Notes))
+			return done{sr, dataset.Series{Name: j.name, Column: j.in.Column}}, nil
+		}
+		sr, err := batch.AnalyzeSeries(ctx, j.in, s, opt)
+		if err != nil {
+			return done{}, err
+		}
+		sr.Name = j.name
+		sr.Notes = battery.WithSourceNotes(j.source, sr.Notes)
+		if o.compactArrays {
+			batch.CompactArrays(&sr)
+		}
+		in := j.in
+		in.Name = j.name
+		return done{sr, in}, nil
+	}
+	n := 0
+	sink := func(d done) error {
+		n++
+		if len(d.sr.Errors) > 0 {
+			failed++
+		}
+		if !announced && !o.quiet && n == 1 && len(jobsList) > 1 {
+			announced = true
+			if est := time.Since(start).Seconds() * float64(len(jobsList)-1) / float64(max(1, poolJobs(o.jobs))); est > 5 {
+				fmt.Fprintf(e.stderr, "rootshift: %d series; estimated %.0f s more (from the first series)\n", len(jobsList), est)
+			}
+		}
+		if stream != nil {
+			return stream.Series(&d.sr)
+		}
+		doc.Series = append(doc.Series, d.sr)
+		inputs = append(inputs, d.in)
+		return nil
+	}
+	err := batch.Pool(e.ctx, o.jobs, false, produce, work, sink)
+	if err == nil && e.ctx.Err() != nil {
+		err = core.ErrCancelled
+	}
+	if err != nil {
+		if errors.Is(err, core.ErrCancelled) || e.ctx.Err() != nil {
+			e.errorf("cancelled")
+			return e.cancelStatus()
+		}
+		var ue *battery.UsageError
+		if errors.As(err, &ue) {
 			e.errorf("%v", err)
 			return exitUsage
 		}
+		e.errorf("%v", err)
+		return exitOutput
+	}
+	var werr error
+	if stream != nil {
+		werr = stream.Close()
+	} else {
+		werr = report.Write(w, o.format, doc, inputs)
+	}
+	if bw, ok := w.(*bufio.Writer); ok && werr == nil {
+		werr = bw.Flush()
+	}
+	if outFile != nil && werr == nil {
+		if werr = outFile.Sync(); werr == nil {
+			if werr = outFile.Close(); werr == nil {
+				werr = os.Rename(outFile.Name(), o.out)
+				if werr == nil {
+					outFile = nil
+				}
+			}
+		}
+	}
+	if werr != nil {
+		e.errorf("writing the output: %v", werr)
+		return exitOutput
 	}
 	if after != nil {
 		if err := after(doc, inputs); err != nil {
@@ -155,12 +351,62 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			return exitUsage
 		}
 	}
-	for _, sr := range doc.Series {
-		if len(sr.Errors) > 0 {
-			return exitFailed
-		}
+	if failed > 0 {
+		return exitFailed
 	}
 	return exitOK
+}
+
+func poolJobs(j int) int {
+	if j <= 0 {
+		return runtime.GOMAXPROCS(0)
+	}
+	return j
+}
+
+// planSeries lists the series of t in the order of battery.Analyze: the
+// selected columns (analysed, or failed at selection), then columns that
+// are not series, then any other selection error.
+func planSeries(t *dataset.Table, s schema.Settings) ([]seriesJob, error) {
+	prepared, errs := dataset.Select(t, s)
+	failed := map[string]error{}
+	for i := range errs {
+		if errs[i].Series == "" {
+			return nil, &battery.UsageError{Field: "input selection", Err: &errs[i]}
+		}
+		failed[errs[i].Series] = &errs[i]
+	}
+	byName := map[string]dataset.Series{}
+	for _, p := range prepared {
+		byName[p.Name] = p
+	}
+	var out []seriesJob
+	seen := map[string]bool{}
+	for _, col := range t.Series {
+		if seen[col.Name] {
+			continue
+		}
+		if p, ok := byName[col.Name]; ok {
+			seen[col.Name] = true
+			out = append(out, seriesJob{name: p.Name, in: p})
+		} else if e, ok := failed[col.Name]; ok {
+			seen[col.Name] = true
+			out = append(out, seriesJob{name: col.Name, in: dataset.Series{Name: col.Name, Column: col.Column, Notes: col.Notes}, freq: col.Frequency, fail: e})
+		}
+	}
+	for _, pe := range t.Skipped {
+		if name := pe.ColumnName; name != "" && !seen[name] {
+			seen[name] = true
+			out = append(out, seriesJob{name: name, in: dataset.Series{Name: name, Column: pe.Column}, freq: t.Frequency, fail: pe})
+		}
+	}
+	for i := range errs {
+		if name := errs[i].Series; !seen[name] {
+			seen[name] = true
+			out = append(out, seriesJob{name: name, in: dataset.Series{Name: name}, fail: &errs[i]})
+		}
+	}
+	return out, nil
 }
 
 func (e *env) readInput(f string) (string, []byte, error) {

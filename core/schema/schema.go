@@ -40,6 +40,17 @@ type Source struct {
 	// (columns renamed, decimal mark guessed, blank rows, index columns,
 	// calendar gaps, sheets not read ...).
 	Notes []Note `json:"notes,omitempty"`
+	// Path is the input file's canonical path (absolute, symbolic links
+	// resolved); batch records only. With Fingerprint it identifies the
+	// input when a run is resumed.
+	Path string `json:"path,omitempty"`
+	// Fingerprint is "sha256:" and the hex SHA-256 of the input file's
+	// bytes (batch records only; empty for standard input).
+	Fingerprint string `json:"fingerprint,omitempty"`
+	// Index is the 1-based position of the series among every series read
+	// from the inputs of a batch run, counted before sharding and resume
+	// (batch records only): merging shard outputs sorts by it.
+	Index int `json:"index,omitempty"`
 }
 
 // Note is one finding of the reader about the input.
@@ -132,6 +143,10 @@ type Result struct {
 	Breaks []Break `json:"breaks,omitempty"`
 	// Path is the statistic at every candidate break (single-break searches).
 	Path []PathPoint `json:"path,omitempty"`
+	// PathCompact replaces Path when compact arrays are asked for (the
+	// CLI's --compact-arrays): the same statistics by candidate, with the
+	// candidates as an arithmetic run.
+	PathCompact *Run `json:"path_compact,omitempty"`
 	// Surface summarises a two-break search.
 	Surface *Surface `json:"surface,omitempty"`
 	// Episodes are explosive episodes (sadf/gsadf).
@@ -183,6 +198,49 @@ type Surface struct {
 	Max        float64 `json:"max"`
 	// Rows gives, for each first-break candidate, the best statistic over second breaks.
 	Rows []PathPoint `json:"rows,omitempty"`
+	// RowsCompact replaces Rows when compact arrays are asked for.
+	RowsCompact *Run `json:"rows_compact,omitempty"`
+}
+
+// Run is a compact numeric array: Values[i] belongs to observation index
+// First + i*Step (a PathPoint list whose indices form an arithmetic run,
+// in about 40% of the bytes).
+type Run struct {
+	First  int       `json:"first"`
+	Step   int       `json:"step"`
+	Values []float64 `json:"values"`
+}
+
+// CompactPoints returns ps as a Run when their indices form an arithmetic
+// run (at least two points), or nil.
+func CompactPoints(ps []PathPoint) *Run {
+	if len(ps) < 2 {
+		return nil
+	}
+	step := ps[1].Index - ps[0].Index
+	if step < 1 {
+		return nil
+	}
+	r := &Run{First: ps[0].Index, Step: step, Values: make([]float64, len(ps))}
+	for i, p := range ps {
+		if p.Index != r.First+i*step {
+			return nil
+		}
+		r.Values[i] = p.Statistic
+	}
+	return r
+}
+
+// Points expands r back to the PathPoint list it stands for.
+func (r *Run) Points() []PathPoint {
+	if r == nil {
+		return nil
+	}
+	ps := make([]PathPoint, len(r.Values))
+	for i, v := range r.Values {
+		ps[i] = PathPoint{Index: r.First + i*r.Step, Statistic: v}
+	}
+	return ps
 }
 
 // Episode is one explosive episode.
