@@ -125,6 +125,7 @@ func (w *adfWork) fillTo(g *lmGram, n, t0 int) {
 		g.b[i] = dot(i, n, cols[i], w.dep)
 	}
 	g.yy = tb[fi[n]*nf+fi[n]]
+	g.scale = g.yy
 	g.obs = w.d.T - t0 + 1
 }
 
