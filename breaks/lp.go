@@ -57,104 +57,29 @@ type adfTest struct {
 	slope bool
 }
 
-// adfWork is the per-goroutine scratch of the ADF-type statistics. The
-// cross-products among the candidate-independent atoms (constant, trend,
-// y_{t-1}, Δy_t and its lags) are tabulated once per series for every
-// window start t0 = 2..kmax+2; per candidate only the entries that involve
-// a break column are computed.
+// adfWork is the per-goroutine scratch of the ADF-type statistics. Per
+// candidate the columns are described as atoms (see ls.go) and rowGram
+// gives their cross-products in a time independent of T: the
+// candidate-independent atoms (constant, trend, y_{t-1}, Δy_t and its
+// lags) are tabulated once per series for every window start, steps and
+// ramps at the break dates come from prefix sums, and the one-time dummies
+// D(TB)_{t-i} are single rows added to the smooth part.
 type adfWork struct {
-	d    lmXData
+	e    rowGram
+	d    *lmXData
 	g    lmGram
 	cols []lmColumn
 	dep  lmColumn
 	ys   []float64
 	kmax int
-	nf   int
-	tbl  []float64 // tbl[(t0-2)*nf*nf + i*nf + j]
-	fi   []int
-}
-
-// fixedIndex is the index of column c in the tabulated atoms, or -1.
-func (w *adfWork) fixedIndex(c lmColumn) int {
-	if len(c) != 1 || c[0].c != 1 {
-		return -1
-	}
-	a := c[0].a
-	switch {
-	case a.kind == lmKData:
-		return 2 + a.v
-	case a.v != 0:
-		return -1
-	case a.kind == lmKStep:
-		return 0
-	case a.kind == lmKRamp:
-		return 1
-	}
-	return -1
-}
-
-func (w *adfWork) fillTo(g *lmGram, n, t0 int) {
-	cols := w.cols[:n]
-	if t0 > w.kmax+2 || t0 < 2 {
-		g.fill(&w.d, cols, w.dep, t0)
-		return
-	}
-	if cap(w.fi) < n+1 {
-		w.fi = make([]int, n+1)
-	}
-	fi := w.fi[:n+1]
-	for i, c := range cols {
-		fi[i] = w.fixedIndex(c)
-	}
-	fi[n] = 2 + lmDy
-	nf := w.nf
-	tb := w.tbl[(t0-2)*nf*nf : (t0-1)*nf*nf]
-	dot := func(i, j int, ci, cj lmColumn) float64 {
-		if fi[i] >= 0 && fi[j] >= 0 {
-			return tb[fi[i]*nf+fi[j]]
-		}
-		return w.d.colDot(ci, cj, t0)
-	}
-	g.n = n
-	g.a = lmGrow(g.a, n*n)
-	g.b = lmGrow(g.b, n)
-	for i := 0; i < n; i++ {
-		for j := 0; j <= i; j++ {
-			g.a[i*n+j] = dot(i, j, cols[i], cols[j])
-		}
-		g.b[i] = dot(i, n, cols[i], w.dep)
-	}
-	g.yy = tb[fi[n]*nf+fi[n]]
-	g.scale = g.yy
-	g.obs = w.d.T - t0 + 1
 }
 
 func (w *adfWork) setup(y []float64, kmax int) {
 	w.ys, _, _ = core.Standardize(w.ys, y)
-	w.d.build(w.ys, kmax)
+	w.e.setup(w.ys, kmax, nil)
+	w.d = &w.e.d
 	w.dep = append(w.dep[:0], lmTerm{lmAtom{lmKData, lmDy}, 1})
 	w.kmax = kmax
-	nf := 2 + w.d.nc
-	w.nf = nf
-	w.tbl = lmGrow(w.tbl, (kmax+1)*nf*nf)
-	at := func(i int) lmAtom {
-		switch i {
-		case 0:
-			return lmAtom{lmKStep, 0}
-		case 1:
-			return lmAtom{lmKRamp, 0}
-		}
-		return lmAtom{lmKData, i - 2}
-	}
-	for t0 := 2; t0 <= kmax+2; t0++ {
-		tb := w.tbl[(t0-2)*nf*nf : (t0-1)*nf*nf]
-		for i := 0; i < nf; i++ {
-			for j := 0; j <= i; j++ {
-				v := w.d.atomDot(at(i), at(j), t0)
-				tb[i*nf+j], tb[j*nf+i] = v, v
-			}
-		}
-	}
 }
 
 // nDet is the number of deterministic regressors of the one-step forms.
@@ -268,7 +193,8 @@ func (w *adfWork) stat(a adfTest, tbs []int, spec lmLagSpec) (float64, int, int,
 			set(b+a.nb, one(lmKData, lmDy+l))
 		}
 	}
-	return lmSelectAndTest(w, &w.g, ds, spec)
+	w.e.load(cols, w.dep)
+	return lmSelectAndTest(&w.e, &w.g, ds, spec)
 }
 
 // adfPrepare validates input and settings of an ADF-type break test and
