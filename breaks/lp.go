@@ -369,7 +369,9 @@ func runLP(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, 
 // lmSearch2Gap is lmSearch2 with a minimum distance gap between the breaks.
 func lmSearch2Gap(ctx context.Context, lo, hi, gap int, f lmCandStat, rows bool) (lmSearchResult, error) {
 	r := lmSearchResult{tau: math.Inf(1), lo: math.Inf(1), hi: math.Inf(-1)}
-	var tbs [2]int
+	buf := lmDatesPool.Get().(*[2]int) // f's argument escapes: reuse it
+	defer lmDatesPool.Put(buf)
+	tbs := buf[:]
 	for t1 := lo; t1+gap <= hi; t1++ {
 		if ctx != nil && ctx.Err() != nil {
 			return r, ctx.Err()
@@ -390,7 +392,7 @@ func lmSearch2Gap(ctx context.Context, lo, hi, gap int, f lmCandStat, rows bool)
 			r.lo, r.hi = math.Min(r.lo, tau), math.Max(r.hi, tau)
 			best = math.Min(best, tau)
 			if tau < r.tau {
-				r.tau, r.tbs, r.k, r.nobs = tau, tbs, k, nobs
+				r.tau, r.tbs, r.k, r.nobs = tau, *buf, k, nobs
 			}
 		}
 		if rows && !math.IsInf(best, 1) {

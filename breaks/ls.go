@@ -29,6 +29,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"sync"
 
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
@@ -651,22 +652,28 @@ type lmSearchResult struct {
 	exact   exactSet // candidates that fit exactly (ExactFitTol): the search fails
 }
 
+// lmDatesPool holds the break-date buffers of the searches, so that a
+// search does not allocate.
+var lmDatesPool = sync.Pool{New: func() any { return new([2]int) }}
+
 // lmSearch1 evaluates f at TB = lo..hi and keeps the minimum.
 func lmSearch1(ctx context.Context, lo, hi int, f lmCandStat, path bool) (lmSearchResult, error) {
 	r := lmSearchResult{tau: math.Inf(1), lo: math.Inf(1), hi: math.Inf(-1)}
 	if path {
 		r.path = make([]schema.PathPoint, 0, hi-lo+1)
 	}
-	var tbs [1]int
+	buf := lmDatesPool.Get().(*[2]int) // f's argument escapes: reuse it
+	defer lmDatesPool.Put(buf)
+	tbs := buf[:1]
 	for tb := lo; tb <= hi; tb++ {
 		if ctx != nil && (tb-lo)%64 == 0 && ctx.Err() != nil {
 			return r, ctx.Err()
 		}
 		tbs[0] = tb
-		tau, k, nobs, err := f(tbs[:])
+		tau, k, nobs, err := f(tbs)
 		if err != nil {
 			if IsExactFit(err) {
-				r.exact.add(tbs[:])
+				r.exact.add(tbs)
 				continue
 			}
 			r.lastErr = err
