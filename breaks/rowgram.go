@@ -457,3 +457,28 @@ func (e *rowGram) extend(g *lmGram, w, t0 int) {
 	g.scale = e.ss[T] - e.ss[t0-1]
 	g.obs = T - t0 + 1
 }
+
+// rowValues writes the values of the leading n loaded columns at row r
+// (smooth parts and pulses) into dst and returns the dependent variable at r.
+func (e *rowGram) rowValues(r, n int, dst []float64) float64 {
+	rdr := e.rd[r*e.nd : (r+1)*e.nd]
+	q := int(e.slot[r]) - 1
+	for i, f := range e.fa[:n] {
+		var x float64
+		switch {
+		case f >= 2:
+			x = rdr[f-2]
+		case f == 0:
+			x = 1
+		default:
+			for _, t := range e.sm[i] {
+				x += t.w * e.atomAt(t.a, r)
+			}
+		}
+		if q >= 0 {
+			x += e.ev[q*e.nc+i]
+		}
+		dst[i] = x
+	}
+	return rdr[e.dep-2]
+}

@@ -106,7 +106,8 @@ func TestLMEngineVsScan(t *testing.T) {
 }
 
 // TestADFEngineTrend compares lp and cmr* with the QR refit on trending
-// series at the 1e6 scale, at every pair of a coarse grid.
+// series at the 1e6 scale, at every pair of a coarse grid; the AO form's
+// deleted dummy rows also with its dummies carried as columns.
 func TestADFEngineTrend(t *testing.T) {
 	for n, c := range []struct {
 		id    string
@@ -129,6 +130,8 @@ func TestADFEngineTrend(t *testing.T) {
 			y := lmTrendSeries(c.T, uint64(400+n), 0.9)
 			var w adfWork
 			w.setup(y, c.spec.k)
+			cw := adfWork{aoColumns: true} // AO: dummies as columns
+			cw.setup(y, c.spec.k)
 			lo, hi, _ := Candidates(c.T, 0.15)
 			lo = max(lo, c.spec.k+3)
 			gap := lmMinGap
@@ -142,6 +145,12 @@ func TestADFEngineTrend(t *testing.T) {
 				fs, fk, _, ferr := w.stat(a, tbs, c.spec)
 				if (berr == nil) != (ferr == nil) || berr == nil && (fk != bk || !lmClose(fs, bs, 1e-9)) {
 					t.Errorf("tbs %v: engine %.12g (k=%d, %v), QR refit %.12g (k=%d, %v)", tbs, fs, fk, ferr, bs, bk, berr)
+				}
+				if a.form == formAO {
+					cs, ck, _, cerr := cw.stat(a, tbs, c.spec)
+					if (cerr == nil) != (ferr == nil) || cerr == nil && (ck != fk || !lmClose(cs, fs, 1e-9)) {
+						t.Errorf("tbs %v: rows deleted %.12g (k=%d, %v), dummy columns %.12g (k=%d, %v)", tbs, fs, fk, ferr, cs, ck, cerr)
+					}
 				}
 				checked++
 			}
