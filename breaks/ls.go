@@ -3,22 +3,25 @@ package breaks
 // Shared machinery of the Lee-Strazicich LM tests (ls1, ls2), the
 // Lumsdaine-Papell test (lp) and the Clemente-Montanes-Reyes tests (cmr*).
 //
-// Cross-product engine (ADF-type tests and the LM δ̃ step): every regressor
-// is a short linear combination of "atoms" — fixed data columns (y_{t-1},
-// Δy_t, Δy_{t-i}) and break atoms (steps 1(t > b), ramps (t - b) 1(t > b),
-// pulses 1(t = p); the constant is the step at b = 0 and the trend t the
-// ramp at b = 0). The cross-product of two atoms over a window t = t0..T is
-// O(1): data x data from prefix sums of products built once per series,
-// data x break from prefix (suffix) sums of the data and of t times the
-// data, break x break in closed form. A candidate break date changes only
-// the break atoms and the combination weights; nothing is refitted.
+// Cross-product engine: every regressor is a short linear combination of
+// "atoms" — fixed data columns (y_{t-1}, Δy_t, Δy_{t-i}) and break atoms
+// (steps 1(t > b), ramps (t - b) 1(t > b), pulses 1(t = p); the constant is
+// the step at b = 0 and the trend t the ramp at b = 0). The cross-product of
+// two smooth atoms over a window t = t0..T is O(1): data x data from a table
+// built once per series for every window start, data x break from prefix
+// (suffix) sums of the data and of t times the data, break x break in
+// closed form; pulses touch single rows, which are added to the smooth part
+// (rowGram, rowgram.go). A candidate break date changes only the break atoms,
+// the pulse rows and the combination weights; nothing is refitted and
+// nothing depends on T per candidate.
 //
 // LM regression (Lee & Strazicich 2003, eqs. (2)-(3); Schmidt & Phillips
 // 1992): with Z_t = [t, D_jt, DT_jt] (the constant is absorbed by ψ), δ̃
 // from Δy_t on ΔZ_t = [1, B_jt, D_jt] over t = 2..T (B_jt = 1(t = TB_j+1),
-// D_jt = 1(t > TB_j)) comes from the atom engine; S̃_t and ΔS̃_t are then
-// formed in O(T) and every cross-product of Δy_t on [ΔZ_t, S̃_{t-1},
-// ΔS̃_{t-1..t-k}] is read from prefix sums of lagged products (see lmWork).
+// D_jt = 1(t > TB_j)) is a mean per regime without the rows TB_j+1; then
+// S̃_{t-1} and ΔS̃_{t-i} are themselves atom combinations, modulo the
+// columns of ΔZ_t (see lmWork), so the LM regression of Δy_t on [ΔZ_t,
+// S̃_{t-1}, ΔS̃_{t-1..t-k}] has its cross-products from the same engine.
 //
 // Lag selection (t-sig, AIC, BIC) factors the Gram of the largest order
 // once: the nested regressions are leading blocks of one Cholesky factor
