@@ -295,8 +295,9 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		row := x[t*np : (t+1)*np]
 		for i, xi := range row {
 			ai := acc[i*np : i*np+i+1]
-			for j := range ai {
-				ai[j] += xi * row[j]
+			ri := row[:len(ai)] // one bounds check per row, none in the loop
+			for j, v := range ri {
+				ai[j] += xi * v
 			}
 		}
 		if k := t - 2; k <= kk {
@@ -598,7 +599,7 @@ func (w *Searcher) at(spec *Spec, tb int) (Candidate, fitStatus) {
 func (w *Searcher) smallSystem(nb int, xb []float64, xx, xy, yy, dd float64, n, K int) (t, ssr float64, st fitStatus) {
 	m := &w.nrm
 	q := nb + 1
-	m.Reset(q)
+	m.Size(q) // every entry read by Solve is set below
 	for i := 0; i < nb; i++ {
 		for j := 0; j <= i; j++ {
 			m.A[i*q+j] = w.sbb[i*3+j]
@@ -642,38 +643,48 @@ func (w *Searcher) tLast(nb int, xx, xy, yy, dd float64, df int) (t2, sign, ssr 
 	if df <= 0 {
 		return 0, 0, 0, fitSkip
 	}
-	var l [9]float64
-	var dg, ux, uy [3]float64
 	qxx, qxy, qyy := 0.0, 0.0, 0.0
-	for i := 0; i < nb; i++ {
-		sii := w.sbb[i*3+i]
-		if !(sii > 1e-10*w.bb[i*3+i]) {
+	if nb == 1 {
+		// One break column: the loop below with scalars (same arithmetic).
+		sii := w.sbb[0]
+		if !(sii > 1e-10*w.bb[0]) || !(sii > 1e-12*sii) {
 			return 0, 0, 0, fitSkip
 		}
-		v := sii
-		for j := 0; j < i; j++ {
-			v -= l[i*3+j] * l[i*3+j] * dg[j]
-		}
-		if !(v > 1e-12*sii) {
-			return 0, 0, 0, fitSkip
-		}
-		dg[i] = v
-		for r := i + 1; r < nb; r++ {
-			u := w.sbb[r*3+i]
-			for j := 0; j < i; j++ {
-				u -= l[r*3+j] * l[i*3+j] * dg[j]
+		a, b := w.xb[0], w.sby[0]
+		qxx, qxy, qyy = a*a/sii, a*b/sii, b*b/sii
+	} else {
+		var l [9]float64
+		var dg, ux, uy [3]float64
+		for i := 0; i < nb; i++ {
+			sii := w.sbb[i*3+i]
+			if !(sii > 1e-10*w.bb[i*3+i]) {
+				return 0, 0, 0, fitSkip
 			}
-			l[r*3+i] = u / v
+			v := sii
+			for j := 0; j < i; j++ {
+				v -= l[i*3+j] * l[i*3+j] * dg[j]
+			}
+			if !(v > 1e-12*sii) {
+				return 0, 0, 0, fitSkip
+			}
+			dg[i] = v
+			for r := i + 1; r < nb; r++ {
+				u := w.sbb[r*3+i]
+				for j := 0; j < i; j++ {
+					u -= l[r*3+j] * l[i*3+j] * dg[j]
+				}
+				l[r*3+i] = u / v
+			}
+			a, b := w.xb[i], w.sby[i]
+			for j := 0; j < i; j++ {
+				a -= l[i*3+j] * ux[j]
+				b -= l[i*3+j] * uy[j]
+			}
+			ux[i], uy[i] = a, b
+			qxx += a * a / v
+			qxy += a * b / v
+			qyy += b * b / v
 		}
-		a, b := w.xb[i], w.sby[i]
-		for j := 0; j < i; j++ {
-			a -= l[i*3+j] * ux[j]
-			b -= l[i*3+j] * uy[j]
-		}
-		ux[i], uy[i] = a, b
-		qxx += a * a / v
-		qxy += a * b / v
-		qyy += b * b / v
 	}
 	px := xx - qxx
 	if !(px > 1e-12*xx) {
@@ -723,6 +734,13 @@ func (w *Searcher) selectLag(spec *Spec, nb int) (int, fitStatus) {
 	}
 	yy := f.yy
 	add := func(r int) {
+		if nb == 1 { // the common one-column case without the loops
+			wi := w.wb[r]
+			w.sbb[0] -= wi * wi
+			w.sby[0] -= wi * f.ry[r]
+			yy -= f.ry[r] * f.ry[r]
+			return
+		}
 		for i := 0; i < nb; i++ {
 			wi := w.wb[i*w.maxK+r]
 			for j := 0; j <= i; j++ {
@@ -790,14 +808,27 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
 		w.sby[i] = w.bv[i*np+w.p]
 		w.xb[i] = w.bv[i*np+2]
 	}
-	for r := 0; r < K; r++ {
-		for i := 0; i < nb; i++ {
-			wi := w.wb[i*w.maxK+r]
-			for j := 0; j <= i; j++ {
-				w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
+	if nb == 1 {
+		// The same updates with scalar accumulators: the index arithmetic of
+		// the general loop costs several times more under WebAssembly.
+		wb, ry, rx := w.wb[:K], f.ry[:K], f.rx[:K]
+		s00, sy, xb := w.sbb[0], w.sby[0], w.xb[0]
+		for r, wi := range wb {
+			s00 -= wi * wi
+			sy -= wi * ry[r]
+			xb -= wi * rx[r]
+		}
+		w.sbb[0], w.sby[0], w.xb[0] = s00, sy, xb
+	} else {
+		for r := 0; r < K; r++ {
+			for i := 0; i < nb; i++ {
+				wi := w.wb[i*w.maxK+r]
+				for j := 0; j <= i; j++ {
+					w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
+				}
+				w.sby[i] -= wi * f.ry[r]
+				w.xb[i] -= wi * f.rx[r]
 			}
-			w.sby[i] -= wi * f.ry[r]
-			w.xb[i] -= wi * f.rx[r]
 		}
 	}
 	n := w.T - k - 1
@@ -865,6 +896,7 @@ func cholPrefix(a, b []float64, K int, l, d, z []float64) int {
 
 func searchDot(x, y []float64) float64 {
 	s := 0.0
+	y = y[:len(x)] // hoists the bounds check out of the loop
 	for i, v := range x {
 		s += v * y[i]
 	}
