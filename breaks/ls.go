@@ -278,7 +278,7 @@ func (g *lmGram) fill(d *lmXData, cols []lmColumn, dep lmColumn, t0 int) {
 // in g.nm.Coef and g.nm.InvDiag gives (X'X)^-1_jj.
 func (g *lmGram) solve(k int) (float64, error) {
 	nm := &g.nm
-	nm.Reset(k)
+	nm.Size(k) // the lower triangle of A, B, YY and N are set below
 	for i := 0; i < k; i++ {
 		for j := 0; j <= i; j++ {
 			nm.A[i*k+j] = g.a[i*g.n+j]

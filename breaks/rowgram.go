@@ -331,8 +331,8 @@ func (e *rowGram) fillTo(g *lmGram, n, t0 int) {
 		}
 	}
 	g.n = n
-	g.a = lmGrow(g.a, n*n)
-	g.b = lmGrow(g.b, n)
+	g.a = searchGrow(g.a, n*n) // every entry of the lower triangle is set below
+	g.b = searchGrow(g.b, n)
 	dep := e.dep
 	for i := 0; i < n; i++ {
 		fi := e.fa[i]
