@@ -223,7 +223,7 @@ type Searcher struct {
 	bcode    [3]int
 	bv       []float64 // raw break × base cross-products, [break][base column]
 	bb       [9]float64
-	wb, wtmp []float64 // residualised break columns, [break][row of L]
+	wb       []float64 // residualised break columns, [break][row of L]
 	sbb      [9]float64
 	sby, xb  [3]float64
 	a, b, z  []float64 // scratch of pfactor.build
@@ -276,6 +276,7 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		tt := row[1]
 		a1, at := s1[(t+1)*np:(t+2)*np], st[(t+1)*np:(t+2)*np]
 		b1, bt := s1[t*np:(t+1)*np], st[t*np:(t+1)*np]
+		a1, at, b1, bt = a1[:len(row)], at[:len(row)], b1[:len(row)], bt[:len(row)]
 		for c, v := range row {
 			b1[c] = a1[c] + v
 			bt[c] = at[c] + tt*v
@@ -430,13 +431,19 @@ func (w *Searcher) breakVectors(spec *Spec, tb int) int {
 func (w *Searcher) residualise(f *pfactor, nb, n int) {
 	np := w.p + 1
 	K := len(f.codes)
+	codes, d, linv := f.codes[:n], f.d[:n], f.linv[:n]
 	for b := 0; b < nb; b++ {
 		v := w.bv[b*np : (b+1)*np]
-		raw := w.wtmp[:n]
-		for i := 0; i < n; i++ {
-			raw[i] = v[f.codes[i]]
+		out := w.wb[b*w.maxK : b*w.maxK+n]
+		out = out[:len(codes)]
+		// forwardScaled of the gathered column, with the gather and the
+		// bounds checks out of the inner loop (they cost several times more
+		// under WebAssembly than natively).
+		for i, c := range codes {
+			row := f.l[i*K : i*K+i]
+			dot := searchDot(row, out[:i])
+			out[i] = (v[c]*d[i] - dot) * linv[i]
 		}
-		forwardScaled(f.l, f.linv, f.d, raw, w.wb[b*w.maxK:b*w.maxK+n], K, n)
 	}
 }
 
@@ -473,7 +480,6 @@ func (w *Searcher) factors(spec *Spec) {
 	w.maxK = 2 + 1 + kk
 	w.bv = searchGrow(w.bv, 3*(w.p+1))
 	w.wb = searchGrow(w.wb, 3*w.maxK)
-	w.wtmp = searchGrow(w.wtmp, w.maxK)
 	w.codesBuf = append(w.codesBuf[:0], 0)
 	if spec.Trend == core.TrendLinear {
 		w.codesBuf = append(w.codesBuf, 1)
