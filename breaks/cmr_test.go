@@ -2,6 +2,7 @@ package breaks
 
 import (
 	"context"
+	"math"
 	"testing"
 
 	"github.com/rootshift/rootshift/core"
@@ -16,8 +17,11 @@ func FuzzCMR(f *testing.F) {
 	})
 }
 
+// BenchmarkCMR and BenchmarkLP time the searches through Run (t-sig, kmax
+// 8) at T = 100, 200, 1000; BenchmarkADFBrute is their brute-force twin (a
+// QR refit per candidate and lag order) at T = 100.
 func BenchmarkCMR(b *testing.B) {
-	for _, T := range []int{100, 200} {
+	for _, T := range []int{100, 200, 1000} {
 		y := lmSim(T, 1, 1, 0)
 		for _, id := range []string{"cmrio1", "cmrao1", "cmrio2", "cmrao2"} {
 			info, _ := core.Lookup(id)
@@ -34,7 +38,7 @@ func BenchmarkCMR(b *testing.B) {
 }
 
 func BenchmarkLP(b *testing.B) {
-	for _, T := range []int{100, 200} {
+	for _, T := range []int{100, 200, 1000} {
 		y := lmSim(T, 1, 1, 0)
 		info, _ := core.Lookup("lp")
 		for _, shift := range []core.Shift{core.ShiftLevel, core.ShiftBoth} {
@@ -47,5 +51,42 @@ func BenchmarkLP(b *testing.B) {
 				}
 			})
 		}
+	}
+}
+
+func BenchmarkADFBrute(b *testing.B) {
+	const T = 100
+	y := lmSim(T, 1, 1, 0)
+	for _, c := range []struct {
+		id    string
+		shift core.Shift
+	}{{"lp", core.ShiftLevel}, {"lp", core.ShiftBoth}, {"cmrio1", core.ShiftLevel}, {"cmrao1", core.ShiftLevel}, {"cmrio2", core.ShiftLevel}, {"cmrao2", core.ShiftLevel}} {
+		cfg := &core.Config{Shift: c.shift}
+		b.Run("T="+lmItoa(T)+"/"+c.id+"/"+c.shift.String(), func(b *testing.B) {
+			a, _ := adfTestOf(c.id, cfg)
+			spec, lo, hi, gap, err := adfPrepare(a, y, cfg)
+			if err != nil {
+				b.Fatal(err)
+			}
+			for b.Loop() {
+				best := math.Inf(1)
+				for t1 := lo; t1 <= hi; t1++ {
+					if a.nb == 1 {
+						if s, _, err := adfBrute(y, a, []int{t1}, spec); err == nil {
+							best = math.Min(best, s)
+						}
+						continue
+					}
+					for t2 := t1 + gap; t2 <= hi; t2++ {
+						if s, _, err := adfBrute(y, a, []int{t1, t2}, spec); err == nil {
+							best = math.Min(best, s)
+						}
+					}
+				}
+				if math.IsInf(best, 0) {
+					b.Fatal("no statistic")
+				}
+			}
+		})
 	}
 }

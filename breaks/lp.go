@@ -57,103 +57,38 @@ type adfTest struct {
 	slope bool
 }
 
-// adfWork is the per-goroutine scratch of the ADF-type statistics. The
-// cross-products among the candidate-independent atoms (constant, trend,
-// y_{t-1}, Δy_t and its lags) are tabulated once per series for every
-// window start t0 = 2..kmax+2; per candidate only the entries that involve
-// a break column are computed.
+// adfWork is the per-goroutine scratch of the ADF-type statistics. Per
+// candidate the columns are described as atoms (see ls.go) and rowGram
+// gives their cross-products in a time independent of T: the
+// candidate-independent atoms (constant, trend, y_{t-1}, Δy_t and its
+// lags) are tabulated once per series for every window start, steps and
+// ramps at the break dates come from prefix sums, and the one-time dummies
+// D(TB)_{t-i} are single rows added to the smooth part.
 type adfWork struct {
-	d    lmXData
-	g    lmGram
-	cols []lmColumn
-	dep  lmColumn
-	ys   []float64
-	kmax int
-	nf   int
-	tbl  []float64 // tbl[(t0-2)*nf*nf + i*nf + j]
-	fi   []int
-}
-
-// fixedIndex is the index of column c in the tabulated atoms, or -1.
-func (w *adfWork) fixedIndex(c lmColumn) int {
-	if len(c) != 1 || c[0].c != 1 {
-		return -1
-	}
-	a := c[0].a
-	switch {
-	case a.kind == lmKData:
-		return 2 + a.v
-	case a.v != 0:
-		return -1
-	case a.kind == lmKStep:
-		return 0
-	case a.kind == lmKRamp:
-		return 1
-	}
-	return -1
-}
-
-func (w *adfWork) fillTo(g *lmGram, n, t0 int) {
-	cols := w.cols[:n]
-	if t0 > w.kmax+2 || t0 < 2 {
-		g.fill(&w.d, cols, w.dep, t0)
-		return
-	}
-	if cap(w.fi) < n+1 {
-		w.fi = make([]int, n+1)
-	}
-	fi := w.fi[:n+1]
-	for i, c := range cols {
-		fi[i] = w.fixedIndex(c)
-	}
-	fi[n] = 2 + lmDy
-	nf := w.nf
-	tb := w.tbl[(t0-2)*nf*nf : (t0-1)*nf*nf]
-	dot := func(i, j int, ci, cj lmColumn) float64 {
-		if fi[i] >= 0 && fi[j] >= 0 {
-			return tb[fi[i]*nf+fi[j]]
-		}
-		return w.d.colDot(ci, cj, t0)
-	}
-	g.n = n
-	g.a = lmGrow(g.a, n*n)
-	g.b = lmGrow(g.b, n)
-	for i := 0; i < n; i++ {
-		for j := 0; j <= i; j++ {
-			g.a[i*n+j] = dot(i, j, cols[i], cols[j])
-		}
-		g.b[i] = dot(i, n, cols[i], w.dep)
-	}
-	g.yy = tb[fi[n]*nf+fi[n]]
-	g.obs = w.d.T - t0 + 1
+	// aoColumns makes the AO form carry its dummies as columns of the
+	// regression (the general path, kept for the tests) instead of
+	// deleting their rows (aoSelectAndTest).
+	aoColumns bool
+	gs        lmGram
+	xr        []float64
+	selSSR    []float64
+	selT      []float64
+	selOK     []bool
+	e         rowGram
+	d         *lmXData
+	g         lmGram
+	cols      []lmColumn
+	dep       lmColumn
+	ys        []float64
+	kmax      int
 }
 
 func (w *adfWork) setup(y []float64, kmax int) {
 	w.ys, _, _ = core.Standardize(w.ys, y)
-	w.d.build(w.ys, kmax)
+	w.e.setup(w.ys, kmax, nil)
+	w.d = &w.e.d
 	w.dep = append(w.dep[:0], lmTerm{lmAtom{lmKData, lmDy}, 1})
 	w.kmax = kmax
-	nf := 2 + w.d.nc
-	w.nf = nf
-	w.tbl = lmGrow(w.tbl, (kmax+1)*nf*nf)
-	at := func(i int) lmAtom {
-		switch i {
-		case 0:
-			return lmAtom{lmKStep, 0}
-		case 1:
-			return lmAtom{lmKRamp, 0}
-		}
-		return lmAtom{lmKData, i - 2}
-	}
-	for t0 := 2; t0 <= kmax+2; t0++ {
-		tb := w.tbl[(t0-2)*nf*nf : (t0-1)*nf*nf]
-		for i := 0; i < nf; i++ {
-			for j := 0; j <= i; j++ {
-				v := w.d.atomDot(at(i), at(j), t0)
-				tb[i*nf+j], tb[j*nf+i] = v, v
-			}
-		}
-	}
 }
 
 // nDet is the number of deterministic regressors of the one-step forms.
@@ -254,6 +189,9 @@ func (w *adfWork) stat(a adfTest, tbs []int, spec lmLagSpec) (float64, int, int,
 			c = append(c, lmTerm{lmAtom{lmKStep, tb + 1}, -(means[j+1] - means[j])})
 		}
 		cols[0] = c
+		if !w.aoColumns {
+			return w.aoSelectAndTest(a, tbs, spec, ds)
+		}
 		for j, tb := range tbs {
 			set(1+j, one(lmKPulse, tb+1))
 		}
@@ -267,7 +205,8 @@ func (w *adfWork) stat(a adfTest, tbs []int, spec lmLagSpec) (float64, int, int,
 			set(b+a.nb, one(lmKData, lmDy+l))
 		}
 	}
-	return lmSelectAndTest(w, &w.g, ds, spec)
+	w.e.load(cols, w.dep)
+	return lmSelectAndTest(&w.e, &w.g, ds, spec)
 }
 
 // adfPrepare validates input and settings of an ADF-type break test and
@@ -442,7 +381,9 @@ func runLP(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, 
 // lmSearch2Gap is lmSearch2 with a minimum distance gap between the breaks.
 func lmSearch2Gap(ctx context.Context, lo, hi, gap int, f lmCandStat, rows bool) (lmSearchResult, error) {
 	r := lmSearchResult{tau: math.Inf(1), lo: math.Inf(1), hi: math.Inf(-1)}
-	var tbs [2]int
+	buf := lmDatesPool.Get().(*[2]int) // f's argument escapes: reuse it
+	defer lmDatesPool.Put(buf)
+	tbs := buf[:]
 	for t1 := lo; t1+gap <= hi; t1++ {
 		if ctx != nil && ctx.Err() != nil {
 			return r, ctx.Err()
@@ -463,7 +404,7 @@ func lmSearch2Gap(ctx context.Context, lo, hi, gap int, f lmCandStat, rows bool)
 			r.lo, r.hi = math.Min(r.lo, tau), math.Max(r.hi, tau)
 			best = math.Min(best, tau)
 			if tau < r.tau {
-				r.tau, r.tbs, r.k, r.nobs = tau, tbs, k, nobs
+				r.tau, r.tbs, r.k, r.nobs = tau, *buf, k, nobs
 			}
 		}
 		if rows && !math.IsInf(best, 1) {
@@ -471,4 +412,147 @@ func lmSearch2Gap(ctx context.Context, lo, hi, gap int, f lmCandStat, rows bool)
 		}
 	}
 	return r, nil
+}
+
+// aoSelectAndTest is the additive-outlier second step with its one-time
+// dummies D(TB_j)_{t-i}, i = 0..k, taken out as rows: a dummy for row r
+// in a regression makes row r fit exactly and leaves every other
+// coefficient, its standard error (with the dummy counted in the degrees
+// of freedom) and the SSR as in the regression without row r (Frisch-Waugh-
+// Lovell). The order-k regression is then ỹ_{t-1} and Δy_{t-1..t-k} over the
+// window without the rows TB_j+1..TB_j+1+k: the cross-products over the
+// whole window (rowGram, time independent of T) minus those rows, one small
+// Cholesky factorisation per order instead of one of the (1+nb)(k+1)+1
+// columns with the dummies. The lag rule is the one of lmSelectAndTest, on
+// the same widths (dummies counted).
+func (w *adfWork) aoSelectAndTest(a adfTest, tbs []int, spec lmLagSpec, ds lmDesign) (float64, int, int, error) {
+	kmax := spec.k
+	e := &w.e
+	nd := 1 + kmax
+	e.begin(nd)
+	for _, t := range w.cols[0] {
+		e.smooth(0, t.a, t.c)
+	}
+	for l := 1; l <= kmax; l++ {
+		e.smooth(l, lmAtom{lmKData, lmDy + l}, 1)
+	}
+	e.finish(lmDy)
+	g, gs := &w.g, &w.gs
+	// remove subtracts the rows TB_j+1+i of the leading n columns.
+	w.xr = searchGrow(w.xr, nd)
+	remove := func(i, n int) {
+		for _, tb := range tbs {
+			r := tb + 1 + i
+			yr := e.rowValues(r, n, w.xr)
+			x := w.xr[:n]
+			for c := 0; c < n; c++ {
+				row := g.a[c*g.n : c*g.n+c+1]
+				xc := x[c]
+				for j := range row {
+					row[j] -= xc * x[j]
+				}
+				g.b[c] -= xc * yr
+			}
+			g.yy -= yr * yr
+		}
+	}
+	k := kmax
+	if spec.rule != core.LagFixed && kmax > 0 {
+		e.fillTo(g, nd, kmax+2)
+		best := math.Inf(1)
+		k = 0
+		// Orders are tried from kmax down (as lmSelectAndTest); the rows of
+		// order kk are those of the smaller orders plus TB_j+1+kk, so the
+		// per-order results are computed upwards first.
+		w.selSSR = searchGrow(w.selSSR, kmax+1)
+		w.selT = searchGrow(w.selT, kmax+1)
+		if cap(w.selOK) < kmax+1 {
+			w.selOK = make([]bool, kmax+1)
+		}
+		ssrs, tl, ok := w.selSSR, w.selT, w.selOK[:kmax+1]
+		for kk := 0; kk <= kmax; kk++ {
+			remove(kk, nd)
+			n := kk + 1
+			gs.n = n
+			gs.a = lmGrow(gs.a, n*n)
+			gs.b = lmGrow(gs.b, n)
+			for i := 0; i < n; i++ {
+				copy(gs.a[i*n:i*n+i+1], g.a[i*g.n:i*g.n+i+1])
+				gs.b[i] = g.b[i]
+			}
+			gs.yy = g.yy
+			ok[kk] = gs.nested(n) == n
+			if ok[kk] {
+				ssrs[kk] = gs.yy - gs.cum[n]
+				tl[kk] = gs.z[n-1]
+			}
+		}
+		obs := g.obs
+		for kk := kmax; kk >= 0; kk-- {
+			if !ok[kk] {
+				continue
+			}
+			wd := ds.width(kk)
+			ssr := ssrs[kk]
+			if ssr <= ExactFitTol*g.scale {
+				return math.NaN(), kk, obs, errExactFit
+			}
+			if spec.rule == core.LagTSig {
+				if kk == 0 {
+					k = 0
+					break
+				}
+				if ssr > 0 && math.Abs(tl[kk]/math.Sqrt(ssr/float64(obs-wd))) > lmTSig {
+					k = kk
+					break
+				}
+				continue
+			}
+			if !(ssr > 0) {
+				continue
+			}
+			nn := float64(obs)
+			pen := 2.0
+			if spec.rule == core.LagBIC {
+				pen = math.Log(nn)
+			}
+			ic := math.Log(ssr/nn) + pen*float64(wd)/nn
+			if ic <= best {
+				best, k = ic, kk
+			}
+		}
+	}
+	// Final regression of order k on t = k+2..T without its dummy rows.
+	e.fillTo(g, k+1, k+2)
+	for i := 0; i <= k; i++ {
+		remove(i, k+1)
+	}
+	wd := ds.width(k)
+	nm := &g.nm
+	n := k + 1
+	nm.Reset(n)
+	for i := 0; i < n; i++ {
+		copy(nm.A[i*n:i*n+i+1], g.a[i*n:i*n+i+1])
+		nm.B[i] = g.b[i]
+	}
+	nm.YY, nm.N = g.yy, g.obs
+	if g.obs <= wd {
+		return math.NaN(), k, g.obs, core.ErrTooShort
+	}
+	ssr, err := nm.Solve()
+	if err != nil {
+		return math.NaN(), k, g.obs, err
+	}
+	if ssr <= ExactFitTol*g.scale {
+		return math.NaN(), k, g.obs, errExactFit
+	}
+	v := ssr / float64(g.obs-wd) * nm.InvDiag(0)
+	tau := math.NaN()
+	if v > 0 {
+		tau = nm.Coef[0] / math.Sqrt(v)
+	}
+	if math.IsNaN(tau) || math.IsInf(tau, 0) {
+		return math.NaN(), k, g.obs, core.ErrSingular
+	}
+	return tau, k, g.obs, nil
 }

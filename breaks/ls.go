@@ -3,22 +3,25 @@ package breaks
 // Shared machinery of the Lee-Strazicich LM tests (ls1, ls2), the
 // Lumsdaine-Papell test (lp) and the Clemente-Montanes-Reyes tests (cmr*).
 //
-// Cross-product engine (ADF-type tests and the LM δ̃ step): every regressor
-// is a short linear combination of "atoms" — fixed data columns (y_{t-1},
-// Δy_t, Δy_{t-i}) and break atoms (steps 1(t > b), ramps (t - b) 1(t > b),
-// pulses 1(t = p); the constant is the step at b = 0 and the trend t the
-// ramp at b = 0). The cross-product of two atoms over a window t = t0..T is
-// O(1): data x data from prefix sums of products built once per series,
-// data x break from prefix (suffix) sums of the data and of t times the
-// data, break x break in closed form. A candidate break date changes only
-// the break atoms and the combination weights; nothing is refitted.
+// Cross-product engine: every regressor is a short linear combination of
+// "atoms" — fixed data columns (y_{t-1}, Δy_t, Δy_{t-i}) and break atoms
+// (steps 1(t > b), ramps (t - b) 1(t > b), pulses 1(t = p); the constant is
+// the step at b = 0 and the trend t the ramp at b = 0). The cross-product of
+// two smooth atoms over a window t = t0..T is O(1): data x data from a table
+// built once per series for every window start, data x break from prefix
+// (suffix) sums of the data and of t times the data, break x break in
+// closed form; pulses touch single rows, which are added to the smooth part
+// (rowGram, rowgram.go). A candidate break date changes only the break atoms,
+// the pulse rows and the combination weights; nothing is refitted and
+// nothing depends on T per candidate.
 //
 // LM regression (Lee & Strazicich 2003, eqs. (2)-(3); Schmidt & Phillips
 // 1992): with Z_t = [t, D_jt, DT_jt] (the constant is absorbed by ψ), δ̃
 // from Δy_t on ΔZ_t = [1, B_jt, D_jt] over t = 2..T (B_jt = 1(t = TB_j+1),
-// D_jt = 1(t > TB_j)) comes from the atom engine; S̃_t and ΔS̃_t are then
-// formed in O(T) and every cross-product of Δy_t on [ΔZ_t, S̃_{t-1},
-// ΔS̃_{t-1..t-k}] is read from prefix sums of lagged products (see lmWork).
+// D_jt = 1(t > TB_j)) is a mean per regime without the rows TB_j+1; then
+// S̃_{t-1} and ΔS̃_{t-i} are themselves atom combinations, modulo the
+// columns of ΔZ_t (see lmWork), so the LM regression of Δy_t on [ΔZ_t,
+// S̃_{t-1}, ΔS̃_{t-1..t-k}] has its cross-products from the same engine.
 //
 // Lag selection (t-sig, AIC, BIC) factors the Gram of the largest order
 // once: the nested regressions are leading blocks of one Cholesky factor
@@ -29,6 +32,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"sync"
 
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
@@ -239,12 +243,16 @@ func (d *lmXData) colDot(x, z lmColumn, t0 int) float64 {
 // lmGram holds the cross-products of up to n regressors and a dependent
 // variable over one window, from which nested leading subsets are solved.
 type lmGram struct {
-	n   int
-	a   []float64 // n*n, lower triangle, row-major
-	b   []float64
-	yy  float64
-	obs int
-	nm  core.Normal
+	n  int
+	a  []float64 // n*n, lower triangle, row-major
+	b  []float64
+	yy float64
+	// scale is the sum of squares of the dependent variable of the
+	// original regression over the window (the exact-fit rule's scale;
+	// equal to yy unless the engine works on a shifted dependent variable).
+	scale float64
+	obs   int
+	nm    core.Normal
 	// nested factorisation (see nested)
 	l, dd, z, cum []float64
 }
@@ -262,6 +270,7 @@ func (g *lmGram) fill(d *lmXData, cols []lmColumn, dep lmColumn, t0 int) {
 		g.b[i] = d.colDot(cols[i], dep, t0)
 	}
 	g.yy = d.colDot(dep, dep, t0)
+	g.scale = g.yy
 	g.obs = d.T - t0 + 1
 }
 
@@ -269,7 +278,7 @@ func (g *lmGram) fill(d *lmXData, cols []lmColumn, dep lmColumn, t0 int) {
 // in g.nm.Coef and g.nm.InvDiag gives (X'X)^-1_jj.
 func (g *lmGram) solve(k int) (float64, error) {
 	nm := &g.nm
-	nm.Reset(k)
+	nm.Size(k) // the lower triangle of A, B, YY and N are set below
 	for i := 0; i < k; i++ {
 		for j := 0; j <= i; j++ {
 			nm.A[i*k+j] = g.a[i*g.n+j]
@@ -325,6 +334,13 @@ type lmFiller interface {
 	fillTo(g *lmGram, w, t0 int)
 }
 
+// lmExtender is a filler that can derive the final regression's
+// cross-products from those of the selection (a leading subset of the
+// columns over a longer window).
+type lmExtender interface {
+	extend(g *lmGram, w, t0 int)
+}
+
 func lmSelectAndTest(f lmFiller, g *lmGram, ds lmDesign, spec lmLagSpec) (tau float64, k, nobs int, err error) {
 	k = spec.k
 	if spec.rule != core.LagFixed && spec.k > 0 {
@@ -339,7 +355,7 @@ func lmSelectAndTest(f lmFiller, g *lmGram, ds lmDesign, spec lmLagSpec) (tau fl
 				continue
 			}
 			ssr := g.yy - g.cum[w]
-			if ssr <= ExactFitTol*g.yy {
+			if ssr <= ExactFitTol*g.scale {
 				// The largest valid order fits exactly (the orders are
 				// nested on one sample, so none is a statistic).
 				return math.NaN(), kk, g.obs, errExactFit
@@ -371,12 +387,16 @@ func lmSelectAndTest(f lmFiller, g *lmGram, ds lmDesign, spec lmLagSpec) (tau fl
 		}
 	}
 	w := ds.width(k)
-	f.fillTo(g, w, k+2)
+	if x, ok := f.(lmExtender); ok && spec.rule != core.LagFixed && spec.k > 0 {
+		x.extend(g, w, k+2)
+	} else {
+		f.fillTo(g, w, k+2)
+	}
 	ssr, err := g.solve(w)
 	if err != nil {
 		return math.NaN(), k, g.obs, err
 	}
-	if ssr <= ExactFitTol*g.yy {
+	if ssr <= ExactFitTol*g.scale {
 		return math.NaN(), k, g.obs, errExactFit
 	}
 	tau = g.tstat(ds.stat, w, ssr)
@@ -436,36 +456,6 @@ func lmDotRow(L []float64, k, i, j, n int) float64 {
 	return s
 }
 
-// lmWork is the per-goroutine scratch of the LM statistic. Per candidate,
-// δ̃ comes from the atom cross-products (O(1) each); S̃ and ΔS̃ are formed in
-// O(T) and every cross-product of the LM regression is then read from
-// prefix sums of lagged products (Σ_t ΔS̃_{t-i} ΔS̃_{t-l} depends on i-l
-// only up to the window ends), so one pass of O(T kmax) serves the whole
-// lag selection, instead of a refit per lag order.
-type lmWork struct {
-	d    lmXData
-	g    lmGram
-	g0   lmGram
-	zc   []lmColumn
-	dep  lmColumn
-	ys   []float64
-	kmax int
-	T    int
-
-	m    lmModel
-	tbs  [2]int
-	s, u []float64 // S̃_t and ΔS̃_t, t = 0..T, zero-padded to T+kmax+1
-	v    []float64 // Δy_t, zero-padded
-	pv   []float64 // prefix sums of v = Δy
-	pvv  []float64
-	// pre[r*na+a] is the prefix sum up to r of array a: 0 S̃, 1 S̃^2, 2 u,
-	// 3 v_t S̃_{t-1}, 4+d u_s u_{s+d} (d = 0..kmax), 5+kmax+i-1 S̃_{s+i-1} u_s
-	// and 5+2kmax+i-1 v_{s+i} u_s (i = 1..kmax). The arrays are interleaved
-	// so that one pass over r updates independent sums side by side.
-	pre []float64
-	na  int
-}
-
 // lmModel is the LM test's break model: nb breaks, slope (model C) or not
 // (crash model A).
 type lmModel struct {
@@ -480,199 +470,138 @@ func (m lmModel) nz() int {
 	return 1 + m.nb
 }
 
-func (w *lmWork) setup(y []float64, kmax int) {
-	w.ys, _, _ = core.Standardize(w.ys, y)
-	w.d.build(w.ys, 0)
-	w.dep = append(w.dep[:0], lmTerm{lmAtom{lmKData, lmDy}, 1})
-	T := len(y)
-	w.T, w.kmax = T, kmax
-	n := T + kmax + 2
-	w.s = lmGrow(w.s, n)
-	w.u = lmGrow(w.u, n)
-	w.v = lmGrow(w.v, n)
-	w.pv = lmGrow(w.pv, T+1)
-	w.pvv = lmGrow(w.pvv, T+1)
-	for t := 2; t <= T; t++ {
-		v := w.ys[t-1] - w.ys[t-2]
-		w.v[t] = v
-		w.pv[t] = w.pv[t-1] + v
-		w.pvv[t] = w.pvv[t-1] + v*v
-	}
-	w.na = 5 + 3*kmax
-	w.pre = lmGrow(w.pre, w.na*(T+1))
+// lmWork is the per-goroutine scratch of the LM statistic; per candidate
+// nothing depends on T. The series is standardised and detrended by the
+// no-break drift, z_t = y_t - y_1 - δ_r (t-1) with δ_r = (y_T - y_1)/(T-1)
+// (so that S̃ is a small correction of z_{t-1} and its cross-products keep
+// their digits); the regression of Δz_t on ΔZ_t gives δ̃ - δ_r and the break
+// coefficients in O(1) (atom engine). Then, modulo the columns of ΔZ_t
+// (adding them to another regressor changes neither φ̂, its t-ratio, the
+// t-ratios of the lags nor the SSR; the dependent variable Δz_t differs
+// from Δy_t by a constant), with a = δ̃_0 - δ_r, c_j and g_j the
+// coefficients of B_jt and D_jt:
+//
+//	S̃_{t-1} ≡ z_{t-1} - a t - Σ_j c_j 1(t > TB_j)                   (crash)
+//	S̃_{t-1} ≡ z_{t-1} - a t - Σ_j g_j (t - TB_j) 1(t > TB_j)        (break)
+//	ΔS̃_{t-i} ≡ Δz_{t-i} - Σ_j c_j 1(t = TB_j+1+i)
+//	           [+ Σ_j g_j Σ_{l=1..i} 1(t = TB_j+l)]                    (break)
+//
+// since ΔS̃_s = Δz_s - a - Σ_j c_j 1(s = TB_j+1) - Σ_j g_j 1(s > TB_j) and
+// 1(t-i > TB_j) = 1(t > TB_j) - Σ_{l=1..i} 1(t = TB_j+l). Every column is a
+// combination of fixed atoms, steps, ramps and pulses, and rowGram gives the
+// cross-products in a time independent of T.
+type lmWork struct {
+	e    rowGram
+	g    lmGram
+	ys   []float64
+	z    []float64
+	kmax int
+	T    int
 }
 
-// lmStat computes the LM t-statistic at break dates tbs with lag spec
-// (spec.k <= the kmax given to setup).
-func (w *lmWork) lmStat(m lmModel, tbs []int, spec lmLagSpec) (tau float64, k, nobs int, err error) {
-	d := &w.d
-	nz := m.nz()
-	// ΔZ_t = [1, B_jt, D_jt]; δ̃ over t = 2..T.
-	if cap(w.zc) < nz {
-		w.zc = make([]lmColumn, nz)
+func (w *lmWork) setup(y []float64, kmax int) {
+	w.ys, _, _ = core.Standardize(w.ys, y)
+	T := len(y)
+	w.T, w.kmax = T, kmax
+	w.z = searchGrow(w.z, T)
+	dr := (w.ys[T-1] - w.ys[0]) / float64(T-1)
+	for t := range w.z {
+		w.z[t] = w.ys[t] - w.ys[0] - dr*float64(t)
 	}
-	zc := w.zc[:nz]
-	zc[0] = append(zc[0][:0], lmTerm{lmAtom{lmKStep, 0}, 1})
-	for j, tb := range tbs {
-		zc[1+j] = append(zc[1+j][:0], lmTerm{lmAtom{lmKPulse, tb + 1}, 1})
-		if m.slope {
-			zc[1+m.nb+j] = append(zc[1+m.nb+j][:0], lmTerm{lmAtom{lmKStep, tb}, 1})
+	w.e.setup(w.z, kmax, w.ys)
+}
+
+// lmStat computes the LM t-statistic at break dates tbs (increasing, at
+// least lmMinGap apart) with lag spec (spec.k <= the kmax given to setup).
+func (w *lmWork) lmStat(m lmModel, tbs []int, spec lmLagSpec) (tau float64, k, nobs int, err error) {
+	d := &w.e.d
+	nz := m.nz()
+	T := w.T
+	// δ̃ from Δz_t on ΔZ_t = [1, B_jt, D_jt] over t = 2..T in closed form:
+	// the pulses B_jt take out the rows TB_j+1, the constant and the steps
+	// D_jt (break model) fit one mean per regime (crash model: one mean).
+	// dl = [δ̃_0 - δ_r, c_1..c_nb (B), g_1..g_nb (D)].
+	var dl [5]float64
+	s1, s2, dz := d.s1[lmDy], d.pp[lmTri(lmDy, lmDy)], d.col[lmDy]
+	ssr0 := 0.0
+	if !m.slope {
+		n := float64(T - 1 - len(tbs))
+		sum, sq := s1[T]-s1[1], s2[T]-s2[1]
+		for _, tb := range tbs {
+			v := dz[tb+1]
+			sum -= v
+			sq -= v * v
+		}
+		mean := sum / n
+		dl[0] = mean
+		for j, tb := range tbs {
+			dl[1+j] = dz[tb+1] - mean
+		}
+		ssr0 = sq - n*mean*mean
+	} else {
+		start, prev := 1, 0.0 // regime rows start+1..end, first row a pulse for j > 0
+		for j := 0; j <= len(tbs); j++ {
+			end := T
+			if j < len(tbs) {
+				end = tbs[j]
+			}
+			n := float64(end - start)
+			sum, sq := s1[end]-s1[start], s2[end]-s2[start]
+			if j > 0 {
+				v := dz[start+1]
+				n--
+				sum -= v
+				sq -= v * v
+			}
+			mean := sum / n
+			ssr0 += sq - n*mean*mean
+			if j == 0 {
+				dl[0] = mean
+			} else {
+				dl[j] = dz[start+1] - mean
+				dl[m.nb+j] = mean - prev
+			}
+			prev = mean
+			start = end
 		}
 	}
-	w.g0.fill(d, zc, w.dep, 2)
-	ssr0, err := w.g0.solve(nz)
-	if err != nil {
-		return math.NaN(), 0, 0, err
-	}
-	if ssr0 <= ExactFitTol*w.g0.yy {
+	if ssr0 <= ExactFitTol*(w.e.ss[T]-w.e.ss[1]) {
 		// Δy is exactly a constant plus the break terms: S̃ is rounding
 		// noise, and its t-ratio would be meaningless.
 		return math.NaN(), 0, 0, errExactFit
 	}
-	dl := w.g0.nm.Coef[:nz]
-	w.m = m
-	copy(w.tbs[:], tbs)
-	// S̃_t = y_t - y_1 - (t-1) δ̃_0 - Σ_j [δ̃_Dj D_jt + δ̃_DTj DT_jt]; u_t = ΔS̃_t.
-	T, y := w.T, w.ys
-	s, u := w.s, w.u
-	for t := 1; t <= T; t++ {
-		v := y[t-1] - y[0] - float64(t-1)*dl[0]
+	// Columns of the LM regression: ΔZ_t, S̃_{t-1}, ΔS̃_{t-1..t-kmax}.
+	e := &w.e
+	e.begin(nz + 1 + w.kmax)
+	e.smooth(0, lmAtom{lmKStep, 0}, 1)
+	for j, tb := range tbs {
+		e.pulse(1+j, tb+1, 1)
+		if m.slope {
+			e.smooth(1+m.nb+j, lmAtom{lmKStep, tb}, 1)
+		}
+	}
+	e.smooth(nz, lmAtom{lmKData, lmYlag}, 1)
+	e.smooth(nz, lmAtom{lmKRamp, 0}, -dl[0])
+	for j, tb := range tbs {
+		if m.slope {
+			e.smooth(nz, lmAtom{lmKRamp, tb}, -dl[1+m.nb+j])
+		} else {
+			e.smooth(nz, lmAtom{lmKStep, tb}, -dl[1+j])
+		}
+	}
+	for i := 1; i <= w.kmax; i++ {
+		e.smooth(nz+i, lmAtom{lmKData, lmDy + i}, 1)
 		for j, tb := range tbs {
-			if t > tb {
-				v -= dl[1+j]
-				if m.slope {
-					v -= dl[1+m.nb+j] * float64(t-tb)
+			e.pulse(nz+i, tb+1+i, -dl[1+j])
+			if m.slope {
+				for l := 1; l <= i; l++ {
+					e.pulse(nz+i, tb+l, dl[1+m.nb+j])
 				}
 			}
 		}
-		s[t] = v
-		if t > 1 {
-			u[t] = v - s[t-1]
-		}
 	}
-	clear(s[T+1:])
-	clear(u[T+1:])
-	kmax, na := w.kmax, w.na
-	v, pre := w.v, w.pre
-	for r := 1; r <= T; r++ {
-		prev := pre[(r-1)*na : r*na]
-		cur := pre[r*na : (r+1)*na]
-		sr, ur := s[r], u[r]
-		cur[0] = prev[0] + sr
-		cur[1] = prev[1] + sr*sr
-		cur[2] = prev[2] + ur
-		cur[3] = prev[3] + v[r]*s[r-1]
-		uq := u[r : r+kmax+1]
-		cq, pq := cur[4:5+kmax], prev[4:5+kmax]
-		for dd, x := range uq {
-			cq[dd] = pq[dd] + ur*x
-		}
-		sq := s[r : r+kmax]
-		cr, pr := cur[5+kmax:5+2*kmax], prev[5+kmax:5+2*kmax]
-		for i, x := range sq {
-			cr[i] = pr[i] + x*ur
-		}
-		vq := v[r+1 : r+1+kmax]
-		cv, pvq := cur[5+2*kmax:5+3*kmax], prev[5+2*kmax:5+3*kmax]
-		for i, x := range vq {
-			cv[i] = pvq[i] + x*ur
-		}
-	}
-	_ = y
-	return lmSelectAndTest(w, &w.g, lmDesign{base: nz + 1, group: 1, stat: nz}, spec)
-}
-
-// Column codes of the LM regression: deterministic columns first, then S̃
-// and the lags; lmDep is the dependent variable Δy_t.
-const lmDep = -1
-
-// detWindow returns the rows [a, T] ∩ [t0, T] of deterministic column c
-// (0: constant; 1..nb: pulse at TB_j+1, as [p, p]; nb+1..: step at TB_j).
-func (w *lmWork) detWindow(c, t0 int) (a, b int) {
-	nb := w.m.nb
-	switch {
-	case c == 0:
-		return t0, w.T
-	case c <= nb:
-		p := w.tbs[c-1] + 1
-		return max(p, t0), p
-	default:
-		return max(w.tbs[c-1-nb]+1, t0), w.T
-	}
-}
-
-// dataSum returns Σ_{t=a}^{b} x_t of data column c (nz: S̃_{t-1}; nz+i: u_{t-i}; lmDep: v_t).
-func (w *lmWork) dataSum(c, nz, a, b int) float64 {
-	if a > b {
-		return 0
-	}
-	switch {
-	case c == lmDep:
-		return w.pv[b] - w.pv[a-1]
-	case c == nz:
-		return w.p(0, b-1) - w.p(0, a-2)
-	}
-	i := c - nz
-	return w.p(2, b-i) - w.p(2, a-1-i)
-}
-
-// dataDot returns Σ_{t=t0}^{T} x_t z_t for data columns c1 <= c2 (lmDep last).
-func (w *lmWork) dataDot(c1, c2, nz, t0 int) float64 {
-	T := w.T
-	if c2 == lmDep {
-		switch {
-		case c1 == lmDep:
-			return w.pvv[T] - w.pvv[t0-1]
-		case c1 == nz:
-			return w.p(3, T) - w.p(3, t0-1)
-		}
-		i := c1 - nz
-		a := 4 + 2*w.kmax + i
-		return w.p(a, T-i) - w.p(a, t0-i-1)
-	}
-	if c1 == nz {
-		if c2 == nz {
-			return w.p(1, T-1) - w.p(1, t0-2)
-		}
-		i := c2 - nz
-		a := 4 + w.kmax + i
-		return w.p(a, T-i) - w.p(a, t0-i-1)
-	}
-	i, l := c1-nz, c2-nz // i <= l
-	a := 4 + l - i
-	return w.p(a, T-l) - w.p(a, t0-l-1)
-}
-
-// p returns the prefix sum of array a up to r.
-func (w *lmWork) p(a, r int) float64 { return w.pre[r*w.na+a] }
-
-// fillTo fills g for the leading n columns of the LM regression over t0..T.
-func (w *lmWork) fillTo(g *lmGram, n, t0 int) {
-	nz := w.m.nz()
-	g.n = n
-	g.a = lmGrow(g.a, n*n)
-	g.b = lmGrow(g.b, n)
-	for i := 0; i < n; i++ {
-		if i < nz {
-			a1, b1 := w.detWindow(i, t0)
-			for j := 0; j <= i; j++ {
-				a2, b2 := w.detWindow(j, t0)
-				g.a[i*n+j] = float64(max(0, min(b1, b2)-max(a1, a2)+1))
-			}
-			g.b[i] = w.dataSum(lmDep, nz, a1, b1)
-			continue
-		}
-		for j := 0; j < nz; j++ {
-			a2, b2 := w.detWindow(j, t0)
-			g.a[i*n+j] = w.dataSum(i, nz, a2, b2)
-		}
-		for j := nz; j <= i; j++ {
-			g.a[i*n+j] = w.dataDot(j, i, nz, t0)
-		}
-		g.b[i] = w.dataDot(i, lmDep, nz, t0)
-	}
-	g.yy = w.dataDot(lmDep, lmDep, nz, t0)
-	g.obs = w.T - t0 + 1
+	e.finish(lmDy)
+	return lmSelectAndTest(e, &w.g, lmDesign{base: nz + 1, group: 1, stat: nz}, spec)
 }
 
 // lmLagSpecFor resolves the lag settings of a break test: the method's own
@@ -726,22 +655,28 @@ type lmSearchResult struct {
 	exact   exactSet // candidates that fit exactly (ExactFitTol): the search fails
 }
 
+// lmDatesPool holds the break-date buffers of the searches, so that a
+// search does not allocate.
+var lmDatesPool = sync.Pool{New: func() any { return new([2]int) }}
+
 // lmSearch1 evaluates f at TB = lo..hi and keeps the minimum.
 func lmSearch1(ctx context.Context, lo, hi int, f lmCandStat, path bool) (lmSearchResult, error) {
 	r := lmSearchResult{tau: math.Inf(1), lo: math.Inf(1), hi: math.Inf(-1)}
 	if path {
 		r.path = make([]schema.PathPoint, 0, hi-lo+1)
 	}
-	var tbs [1]int
+	buf := lmDatesPool.Get().(*[2]int) // f's argument escapes: reuse it
+	defer lmDatesPool.Put(buf)
+	tbs := buf[:1]
 	for tb := lo; tb <= hi; tb++ {
 		if ctx != nil && (tb-lo)%64 == 0 && ctx.Err() != nil {
 			return r, ctx.Err()
 		}
 		tbs[0] = tb
-		tau, k, nobs, err := f(tbs[:])
+		tau, k, nobs, err := f(tbs)
 		if err != nil {
 			if IsExactFit(err) {
-				r.exact.add(tbs[:])
+				r.exact.add(tbs)
 				continue
 			}
 			r.lastErr = err

@@ -65,8 +65,12 @@ func FuzzLS1(f *testing.F) {
 	f.Fuzz(func(t *testing.T, data []byte, shift, lags uint8) { lmFuzzRun(t, "ls1", data, shift, lags, 120) })
 }
 
+// BenchmarkLS1 times the one-break LM search (t-sig, kmax 8) through Run
+// at T = 100, 1000, 10000; BenchmarkLS1Scan is the previous O(T) per
+// candidate path and BenchmarkLS1Brute the QR refit per candidate and lag
+// order (the brute-force twin), beside it at the sizes where they finish.
 func BenchmarkLS1(b *testing.B) {
-	for _, T := range []int{100, 200, 1000} {
+	for _, T := range []int{100, 1000, 10000} {
 		y := lmSim(T, 1, 1, 0)
 		info, _ := core.Lookup("ls1")
 		for _, shift := range []core.Shift{core.ShiftLevel, core.ShiftBoth} {
@@ -79,6 +83,45 @@ func BenchmarkLS1(b *testing.B) {
 				}
 			})
 		}
+	}
+}
+
+func BenchmarkLS1Scan(b *testing.B) {
+	for _, T := range []int{100, 1000} {
+		y := lmSim(T, 1, 1, 0)
+		for _, shift := range []core.Shift{core.ShiftLevel, core.ShiftBoth} {
+			b.Run(lmBenchName(T, shift), func(b *testing.B) {
+				m := lmModel{nb: 1, slope: shift == core.ShiftBoth}
+				spec := lmLagSpec{core.LagTSig, 8}
+				lo, hi, _ := Candidates(T, 0.15)
+				var w lmScanWork
+				for b.Loop() {
+					w.setup(y, spec.k)
+					f := func(tbs []int) (float64, int, int, error) { return w.lmStat(m, tbs, spec) }
+					if r, _ := lmSearch1(nil, max(lo, spec.k+3), hi, f, false); r.ncand == 0 {
+						b.Fatal("no statistic")
+					}
+				}
+			})
+		}
+	}
+}
+
+func BenchmarkLS1Brute(b *testing.B) {
+	const T = 100
+	y := lmSim(T, 1, 1, 0)
+	for _, shift := range []core.Shift{core.ShiftLevel, core.ShiftBoth} {
+		b.Run(lmBenchName(T, shift), func(b *testing.B) {
+			m := lmModel{nb: 1, slope: shift == core.ShiftBoth}
+			spec := lmLagSpec{core.LagTSig, 8}
+			lo, hi, _ := Candidates(T, 0.15)
+			for b.Loop() {
+				s, _ := lmBruteSearch(1, max(lo, spec.k+3), hi, func(tbs []int) (float64, int, error) { return lmBrute(y, m, tbs, spec) })
+				if math.IsInf(s, 0) {
+					b.Fatal("no statistic")
+				}
+			}
+		})
 	}
 }
 

@@ -223,7 +223,7 @@ type Searcher struct {
 	bcode    [3]int
 	bv       []float64 // raw break × base cross-products, [break][base column]
 	bb       [9]float64
-	wb, wtmp []float64 // residualised break columns, [break][row of L]
+	wb       []float64 // residualised break columns, [break][row of L]
 	sbb      [9]float64
 	sby, xb  [3]float64
 	a, b, z  []float64 // scratch of pfactor.build
@@ -276,6 +276,7 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		tt := row[1]
 		a1, at := s1[(t+1)*np:(t+2)*np], st[(t+1)*np:(t+2)*np]
 		b1, bt := s1[t*np:(t+1)*np], st[t*np:(t+1)*np]
+		a1, at, b1, bt = a1[:len(row)], at[:len(row)], b1[:len(row)], bt[:len(row)]
 		for c, v := range row {
 			b1[c] = a1[c] + v
 			bt[c] = at[c] + tt*v
@@ -295,8 +296,9 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		row := x[t*np : (t+1)*np]
 		for i, xi := range row {
 			ai := acc[i*np : i*np+i+1]
-			for j := range ai {
-				ai[j] += xi * row[j]
+			ri := row[:len(ai)] // one bounds check per row, none in the loop
+			for j, v := range ri {
+				ai[j] += xi * v
 			}
 		}
 		if k := t - 2; k <= kk {
@@ -429,13 +431,19 @@ func (w *Searcher) breakVectors(spec *Spec, tb int) int {
 func (w *Searcher) residualise(f *pfactor, nb, n int) {
 	np := w.p + 1
 	K := len(f.codes)
+	codes, d, linv := f.codes[:n], f.d[:n], f.linv[:n]
 	for b := 0; b < nb; b++ {
 		v := w.bv[b*np : (b+1)*np]
-		raw := w.wtmp[:n]
-		for i := 0; i < n; i++ {
-			raw[i] = v[f.codes[i]]
+		out := w.wb[b*w.maxK : b*w.maxK+n]
+		out = out[:len(codes)]
+		// forwardScaled of the gathered column, with the gather and the
+		// bounds checks out of the inner loop (they cost several times more
+		// under WebAssembly than natively).
+		for i, c := range codes {
+			row := f.l[i*K : i*K+i]
+			dot := searchDot(row, out[:i])
+			out[i] = (v[c]*d[i] - dot) * linv[i]
 		}
-		forwardScaled(f.l, f.linv, f.d, raw, w.wb[b*w.maxK:b*w.maxK+n], K, n)
 	}
 }
 
@@ -472,7 +480,6 @@ func (w *Searcher) factors(spec *Spec) {
 	w.maxK = 2 + 1 + kk
 	w.bv = searchGrow(w.bv, 3*(w.p+1))
 	w.wb = searchGrow(w.wb, 3*w.maxK)
-	w.wtmp = searchGrow(w.wtmp, w.maxK)
 	w.codesBuf = append(w.codesBuf[:0], 0)
 	if spec.Trend == core.TrendLinear {
 		w.codesBuf = append(w.codesBuf, 1)
@@ -598,7 +605,7 @@ func (w *Searcher) at(spec *Spec, tb int) (Candidate, fitStatus) {
 func (w *Searcher) smallSystem(nb int, xb []float64, xx, xy, yy, dd float64, n, K int) (t, ssr float64, st fitStatus) {
 	m := &w.nrm
 	q := nb + 1
-	m.Reset(q)
+	m.Size(q) // every entry read by Solve is set below
 	for i := 0; i < nb; i++ {
 		for j := 0; j <= i; j++ {
 			m.A[i*q+j] = w.sbb[i*3+j]
@@ -642,38 +649,48 @@ func (w *Searcher) tLast(nb int, xx, xy, yy, dd float64, df int) (t2, sign, ssr 
 	if df <= 0 {
 		return 0, 0, 0, fitSkip
 	}
-	var l [9]float64
-	var dg, ux, uy [3]float64
 	qxx, qxy, qyy := 0.0, 0.0, 0.0
-	for i := 0; i < nb; i++ {
-		sii := w.sbb[i*3+i]
-		if !(sii > 1e-10*w.bb[i*3+i]) {
+	if nb == 1 {
+		// One break column: the loop below with scalars (same arithmetic).
+		sii := w.sbb[0]
+		if !(sii > 1e-10*w.bb[0]) || !(sii > 1e-12*sii) {
 			return 0, 0, 0, fitSkip
 		}
-		v := sii
-		for j := 0; j < i; j++ {
-			v -= l[i*3+j] * l[i*3+j] * dg[j]
-		}
-		if !(v > 1e-12*sii) {
-			return 0, 0, 0, fitSkip
-		}
-		dg[i] = v
-		for r := i + 1; r < nb; r++ {
-			u := w.sbb[r*3+i]
-			for j := 0; j < i; j++ {
-				u -= l[r*3+j] * l[i*3+j] * dg[j]
+		a, b := w.xb[0], w.sby[0]
+		qxx, qxy, qyy = a*a/sii, a*b/sii, b*b/sii
+	} else {
+		var l [9]float64
+		var dg, ux, uy [3]float64
+		for i := 0; i < nb; i++ {
+			sii := w.sbb[i*3+i]
+			if !(sii > 1e-10*w.bb[i*3+i]) {
+				return 0, 0, 0, fitSkip
 			}
-			l[r*3+i] = u / v
+			v := sii
+			for j := 0; j < i; j++ {
+				v -= l[i*3+j] * l[i*3+j] * dg[j]
+			}
+			if !(v > 1e-12*sii) {
+				return 0, 0, 0, fitSkip
+			}
+			dg[i] = v
+			for r := i + 1; r < nb; r++ {
+				u := w.sbb[r*3+i]
+				for j := 0; j < i; j++ {
+					u -= l[r*3+j] * l[i*3+j] * dg[j]
+				}
+				l[r*3+i] = u / v
+			}
+			a, b := w.xb[i], w.sby[i]
+			for j := 0; j < i; j++ {
+				a -= l[i*3+j] * ux[j]
+				b -= l[i*3+j] * uy[j]
+			}
+			ux[i], uy[i] = a, b
+			qxx += a * a / v
+			qxy += a * b / v
+			qyy += b * b / v
 		}
-		a, b := w.xb[i], w.sby[i]
-		for j := 0; j < i; j++ {
-			a -= l[i*3+j] * ux[j]
-			b -= l[i*3+j] * uy[j]
-		}
-		ux[i], uy[i] = a, b
-		qxx += a * a / v
-		qxy += a * b / v
-		qyy += b * b / v
 	}
 	px := xx - qxx
 	if !(px > 1e-12*xx) {
@@ -723,6 +740,13 @@ func (w *Searcher) selectLag(spec *Spec, nb int) (int, fitStatus) {
 	}
 	yy := f.yy
 	add := func(r int) {
+		if nb == 1 { // the common one-column case without the loops
+			wi := w.wb[r]
+			w.sbb[0] -= wi * wi
+			w.sby[0] -= wi * f.ry[r]
+			yy -= f.ry[r] * f.ry[r]
+			return
+		}
 		for i := 0; i < nb; i++ {
 			wi := w.wb[i*w.maxK+r]
 			for j := 0; j <= i; j++ {
@@ -790,14 +814,27 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
 		w.sby[i] = w.bv[i*np+w.p]
 		w.xb[i] = w.bv[i*np+2]
 	}
-	for r := 0; r < K; r++ {
-		for i := 0; i < nb; i++ {
-			wi := w.wb[i*w.maxK+r]
-			for j := 0; j <= i; j++ {
-				w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
+	if nb == 1 {
+		// The same updates with scalar accumulators: the index arithmetic of
+		// the general loop costs several times more under WebAssembly.
+		wb, ry, rx := w.wb[:K], f.ry[:K], f.rx[:K]
+		s00, sy, xb := w.sbb[0], w.sby[0], w.xb[0]
+		for r, wi := range wb {
+			s00 -= wi * wi
+			sy -= wi * ry[r]
+			xb -= wi * rx[r]
+		}
+		w.sbb[0], w.sby[0], w.xb[0] = s00, sy, xb
+	} else {
+		for r := 0; r < K; r++ {
+			for i := 0; i < nb; i++ {
+				wi := w.wb[i*w.maxK+r]
+				for j := 0; j <= i; j++ {
+					w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
+				}
+				w.sby[i] -= wi * f.ry[r]
+				w.xb[i] -= wi * f.rx[r]
 			}
-			w.sby[i] -= wi * f.ry[r]
-			w.xb[i] -= wi * f.rx[r]
 		}
 	}
 	n := w.T - k - 1
@@ -865,6 +902,7 @@ func cholPrefix(a, b []float64, K int, l, d, z []float64) int {
 
 func searchDot(x, y []float64) float64 {
 	s := 0.0
+	y = y[:len(x)] // hoists the bounds check out of the loop
 	for i, v := range x {
 		s += v * y[i]
 	}

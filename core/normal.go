@@ -45,6 +45,24 @@ func (m *Normal) Reset(k int) {
 	m.YY, m.N = 0, 0
 }
 
+// Size prepares the Normal for k regressors like Reset but without zeroing
+// A, B and YY: for callers that set the whole lower triangle of A, all of B,
+// YY and N before Solve. On a repeated size it does no work at all, which
+// matters on hot paths under WebAssembly, where the zeroing loops and the
+// growth checks of Reset cost several times more than natively.
+func (m *Normal) Size(k int) {
+	if m.K == k && len(m.A) == k*k && len(m.Coef) == k {
+		return
+	}
+	m.K = k
+	m.A = grow(m.A, k*k)
+	m.B = grow(m.B, k)
+	m.l = grow(m.l, k*k)
+	m.d = grow(m.d, k)
+	m.z = grow(m.z, k)
+	m.Coef = grow(m.Coef, k)
+}
+
 // Solve computes the coefficients into m.Coef and returns the sum of squared
 // residuals YY - B'Coef (clamped at 0). It returns ErrSingular when the
 // scaled matrix is not numerically positive definite.
