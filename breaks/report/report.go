@@ -421,7 +421,7 @@ func settingsNotes(s *schema.Settings) []string {
 	}
 	shift := s.Shift
 	if shift == "" {
-		shift = "auto (level; level+slope for a trending series in the verdict's break tests)"
+		shift = "level (the verdict's own stages run both level and level+slope searches)"
 	}
 	sims := "none"
 	if s.Sims > 0 {
