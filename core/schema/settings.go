@@ -52,6 +52,13 @@ type Settings struct {
 	MinWindow float64 `json:"min_window,omitempty"`
 	// MaxBreaks bounds the number of breaks for bp; 0 means 5.
 	MaxBreaks int `json:"max_breaks,omitempty"`
+	// Outlier is how the mean shifts of the meanshift test enter the series:
+	// "innovational" (default, empty: gradually, through the series' own
+	// dynamics) or "additive" (at once).
+	Outlier string `json:"outlier,omitempty"`
+	// Shifts is the number of mean shifts of the meanshift test: 1 or 2;
+	// 0 means 1.
+	Shifts int `json:"shifts,omitempty"`
 
 	// Input selection, applied before testing.
 
