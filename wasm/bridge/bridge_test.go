@@ -347,6 +347,9 @@ func TestAboutAndDemo(t *testing.T) {
 			t.Errorf("test %s lacks a name or null", ti.ID)
 		}
 	}
+	if len(a.Settings) != len(battery.SettingsDescription()) || len(a.Settings) == 0 {
+		t.Errorf("about: %d settings described", len(a.Settings))
+	}
 	if verdict != len(decide.Tests) {
 		t.Errorf("%d tests flagged for the verdict, want %d", verdict, len(decide.Tests))
 	}
