@@ -513,7 +513,7 @@
     const rel = v && v.reliability;
     let win = '—';
     if (v && v.window) win = v.window.answer || (v.window.break_inside ? 'a break inside' : 'no break inside');
-    return el('tr', { 'data-class': cls, 'data-row': String(i) },
+    const tr = el('tr', { 'data-class': cls, 'data-row': String(i) },
       el('th', { scope: 'row', 'data-label': 'Series' }, link),
       el('td', { 'data-label': 'Verdict', class: v ? 'vclass v-' + cls : '' }, v ? (classWords[cls] || cls) : (sr.errors && sr.errors.length ? 'failed' : 'no verdict (tests picked)')),
       el('td', { 'data-label': 'Order' }, v && v.order !== null && v.order !== undefined ? 'I(' + v.order + ')' : '—'),
@@ -521,6 +521,9 @@
       el('td', { 'data-label': 'Breaks', class: 'wrap' }, ...(v && v.breaks && v.breaks.length ? v.breaks.map((b) => el('span', { class: 'date' }, b.date || ('obs. ' + b.index))) : ['—'])),
       el('td', { 'data-label': 'Window' }, win),
       el('td', { class: 'num', 'data-label': 'Error rate', title: rel ? rel.headline : '' }, rel ? pct(rel.wrong_rate) + (rel.t ? ` at T=${rel.t}` : '') : '—'));
+    // Empty cells are left out of the phone layout.
+    for (const c of tr.querySelectorAll('td')) if (c.textContent === '—') c.classList.add('none');
+    return tr;
   }
 
   function applyFilter() {
