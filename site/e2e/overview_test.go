@@ -118,6 +118,7 @@ func TestOverviewInBrowser(t *testing.T) {
 		t.Errorf("at 1280 px, elements wider than the viewport: %v", wide)
 	}
 	shot(t, b, filepath.Join(dir, "overview-1280x800-top.png"), `window.scrollTo(0, 0)`)
+	shot(t, b, filepath.Join(dir, "overview-1280x800-settings.png"), `document.getElementById('settings-card').scrollIntoView()`)
 	shot(t, b, filepath.Join(dir, "overview-1280x800.png"), `document.getElementById('findings-h').scrollIntoView()`)
 
 	// The class filter and select none/all.
