@@ -89,4 +89,17 @@ type Settings struct {
 	// Sheet names the .xlsx worksheet to read; empty: the first sheet
 	// holding data.
 	Sheet string `json:"sheet,omitempty"`
+	// Long reads the input as a long table, one row per series id, date and
+	// value, each id becoming one series; nil: a wide table (one column per
+	// series).
+	Long *LongColumns `json:"long,omitempty"`
+}
+
+// LongColumns names the columns of a long table; an empty name means "id",
+// "date" or "value" (matched ignoring case). The date column may be absent
+// from the file.
+type LongColumns struct {
+	ID    string `json:"id,omitempty"`
+	Date  string `json:"date,omitempty"`
+	Value string `json:"value,omitempty"`
 }

@@ -1,6 +1,7 @@
 package e2e
 
 import (
+	"encoding/json"
 	"net/url"
 	"os"
 	"path/filepath"
@@ -256,4 +257,81 @@ func TestSettingsLabelsFromEngine(t *testing.T) {
 			}
 		}
 	}
+}
+
+// TestLongTableInBrowser pastes a long table made from three columns of
+// testdata/us-employment.csv (one row per series, month and value), checks
+// that the page offers the long reading, and that after the user confirms
+// it the findings are the command-line engine's for settings.long.
+func TestLongTableInBrowser(t *testing.T) {
+	chromium(t)
+	path := page(t)
+	root := repoRoot(t)
+	wide, err := os.ReadFile(filepath.Join(root, "testdata", "us-employment.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	lines := strings.Split(strings.TrimSpace(string(wide)), "\n")
+	head := strings.Split(lines[0], ",")
+	var long strings.Builder
+	long.WriteString("series,month,employed\n")
+	for _, c := range []string{"construction", "utilities", "other_services"} {
+		j := 0
+		for k, h := range head {
+			if h == c {
+				j = k
+			}
+		}
+		for _, l := range lines[1:] {
+			f := strings.Split(l, ",")
+			long.WriteString(c + "," + f[0] + "," + f[j] + "\n")
+		}
+	}
+	b := newBrowser(t)
+	if err := chromedp.Do(b.ctx, chromedp.Navigate((&url.URL{Scheme: "file", Path: path}).String())); err != nil {
+		t.Fatal(err)
+	}
+	var v string
+	b.eval(t, `window.rootshift.ready.then(v => new Promise(r => setTimeout(() => r(JSON.stringify(v)), 300)))`, &v)
+	err = chromedp.Do(b.ctx,
+		chromedp.Evaluate[chromedp.Void](`document.getElementById('paste-box').open = true; document.getElementById('paste').value = `+jsString(long.String())),
+		chromedp.Click(chromedp.ID("use-paste")),
+		chromedp.WaitVisible(chromedp.ID("read-long")),
+	)
+	if err != nil {
+		t.Fatalf("the long reading was not offered: %v", err)
+	}
+	var offer string
+	b.eval(t, `JSON.stringify(document.getElementById('long-offer').innerText)`, &offer)
+	t.Logf("offer: %s", offer)
+	for _, want := range []string{"“series”", "“month”", "“employed”"} {
+		if !strings.Contains(offer, want) {
+			t.Errorf("offer %q does not name %s", offer, want)
+		}
+	}
+	err = chromedp.Do(b.ctx,
+		chromedp.Click(chromedp.ID("read-long")),
+		chromedp.WaitVisible(chromedp.ID("read-wide")),
+		chromedp.WaitEnabled(chromedp.ID("run")),
+		chromedp.Click(chromedp.ID("run")),
+		chromedp.WaitVisible(chromedp.CSS("#overview table")),
+	)
+	if err != nil {
+		t.Fatalf("running the long table: %v", err)
+	}
+	var rows int
+	b.eval(t, `JSON.stringify(document.querySelectorAll('#overview tbody tr').length)`, &rows)
+	if rows != 3 {
+		t.Errorf("%d overview rows, want 3", rows)
+	}
+	var exp struct {
+		Text string `json:"text"`
+	}
+	b.eval(t, `window.rootshift.exportReport('json').then(x => JSON.stringify(x))`, &exp)
+	var got any
+	if err := json.Unmarshal([]byte(exp.Text), &got); err != nil {
+		t.Fatal(err)
+	}
+	want, _ := nativeJSON(t, "pasted", []byte(long.String()), `{"long":{"id":"series","date":"month","value":"employed"}}`)
+	sameDocument(t, "long table through the page", got, want)
 }

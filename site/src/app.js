@@ -151,7 +151,8 @@
 
   // ---------- page state ----------
 
-  const state = { name: '', bytes: null, about: null, preview: null, running: false, lastDoc: null };
+  // long: the long-table reading the user confirmed (settings.long), null for a wide table.
+  const state = { name: '', bytes: null, about: null, preview: null, running: false, lastDoc: null, long: null };
 
   const status = (msg, isError) => {
     const el = $('status');
@@ -182,6 +183,7 @@
   // ---------- data input ----------
 
   function setData(name, bytes) {
+    state.long = null;
     state.name = name;
     state.bytes = bytes;
     refreshPreview();
@@ -232,7 +234,7 @@
       const p = await engineCall('inspect', { name: state.name, bytes: state.bytes.slice(), settings: JSON.stringify(s) });
       state.preview = p;
       renderPreview(p);
-      $('run').disabled = false;
+      $('run').disabled = p.series.length === 0;
       status('Ready: choose what to test, then press “Find out”.');
     } catch (err) {
       box.replaceChildren(el('p', { class: 'errors' }, 'Could not read the data: ' + err.message));
@@ -285,6 +287,19 @@
     parts.push(many ? el('details', { class: 'series-table', open: wasOpen && wasOpen.open ? true : null },
       el('summary', { class: 'small' }, `The ${p.series.length} series: which to test`), table) : table);
     if (p.select_error) parts.push(el('p', { class: 'errors' }, p.select_error));
+    // A long table (one row per id, date and value) is offered, never assumed.
+    const colsText = (lc) => `ids in “${lc.id || 'id'}”, dates in “${lc.date || 'date'}”, values in “${lc.value || 'value'}”`;
+    if (p.long_detected && !p.long) {
+      const yes = el('button', { type: 'button', id: 'read-long', class: 'primary' }, 'Read it as a long table');
+      yes.addEventListener('click', () => { state.long = p.long_detected; refreshPreview(); });
+      parts.unshift(el('div', { class: 'long-offer', id: 'long-offer' },
+        el('p', null, 'This looks like a long table, one row per series: ' + colsText(p.long_detected) + '.'), yes));
+    }
+    if (p.long) {
+      const no = el('button', { type: 'button', id: 'read-wide' }, 'Read it as a wide table instead');
+      no.addEventListener('click', () => { state.long = null; refreshPreview(); });
+      parts.splice(2, 0, el('p', { class: 'small' }, 'Read as a long table: ' + colsText(p.long) + '. ', no));
+    }
     if (p.warnings && p.warnings.length) parts.push(el('ul', { class: 'tight small muted' }, ...p.warnings.map((w) => el('li', null, w))));
     box.replaceChildren(...parts);
     if (p.first_date && $('s-from') && $('s-to')) {
@@ -347,6 +362,7 @@
   // the command-line tool's settings (schema v1); unset fields are omitted.
   function readSettings(inputOnly) {
     const s = {};
+    if (state.long) s.long = state.long;
     const put = (k, v) => { if (v !== undefined && v !== '' && v !== false && !(v === 0 && k !== 'lags' && k !== 'max_lags' && k !== 'bandwidth')) s[k] = v; };
     const desc = (state.about && state.about.settings) || [];
     for (const d of desc) {
