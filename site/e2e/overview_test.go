@@ -335,3 +335,60 @@ func TestLongTableInBrowser(t *testing.T) {
 	want, _ := nativeJSON(t, "pasted", []byte(long.String()), `{"long":{"id":"series","date":"month","value":"employed"}}`)
 	sameDocument(t, "long table through the page", got, want)
 }
+
+// TestProgressInBrowser runs simulated p-values on three demo series and
+// checks that the one overall progress never goes back, names the series
+// position ("Series k of 3") and the replications, and reaches the end.
+func TestProgressInBrowser(t *testing.T) {
+	chromium(t)
+	path := page(t)
+	b := newBrowser(t)
+	if err := chromedp.Do(b.ctx, chromedp.Navigate((&url.URL{Scheme: "file", Path: path}).String())); err != nil {
+		t.Fatal(err)
+	}
+	var v string
+	b.eval(t, `window.rootshift.ready.then(v => new Promise(r => setTimeout(() => r(JSON.stringify(v)), 300)))`, &v)
+	err := chromedp.Do(b.ctx,
+		chromedp.Click(chromedp.ID("use-demo")),
+		chromedp.WaitVisible(chromedp.CSS("#preview table")),
+		chromedp.WaitEnabled(chromedp.ID("run")),
+		chromedp.Evaluate[chromedp.Void](`(() => {
+			const cols = [...document.querySelectorAll('#preview input[data-col]')];
+			cols.forEach((c, i) => { c.checked = i < 3; });
+			document.getElementById('s-mode-pick').click();
+			for (const c of document.querySelectorAll('#tests-grid input')) c.checked = c.value === 'adf' || c.value === 'za';
+			document.getElementById('s-sims').value = '199';
+			window.__seen = [];
+			const box = document.getElementById('progress'), txt = document.getElementById('progress-text');
+			new MutationObserver(() => window.__seen.push([Number(box.dataset.overall || 0), txt.textContent]))
+				.observe(txt, {childList: true, characterData: true, subtree: true});
+		})()`),
+		chromedp.Click(chromedp.ID("run")),
+		chromedp.WaitVisible(chromedp.CSS("#overview table")),
+	)
+	if err != nil {
+		t.Fatalf("running with simulation: %v", err)
+	}
+	var seen [][2]any
+	b.eval(t, `JSON.stringify(window.__seen)`, &seen)
+	if len(seen) < 3 {
+		t.Fatalf("%d progress updates", len(seen))
+	}
+	last, reps, third := -1.0, false, false
+	for _, s := range seen {
+		f, text := s[0].(float64), s[1].(string)
+		if f < last {
+			t.Errorf("progress went back from %.3f to %.3f (%s)", last, f, text)
+		}
+		last = f
+		reps = reps || strings.Contains(text, "replications")
+		third = third || strings.Contains(text, "Series 3 of 3")
+		if !strings.HasPrefix(text, "Series ") {
+			t.Errorf("progress text %q does not start with the series position", text)
+		}
+	}
+	t.Logf("%d progress updates, last %.2f: first %q, last %q", len(seen), last, seen[0][1], seen[len(seen)-1][1])
+	if !reps || !third || last < 0.99 {
+		t.Errorf("progress: replications shown %v, series 3 of 3 shown %v, ended at %.2f", reps, third, last)
+	}
+}

@@ -405,7 +405,7 @@
   // ---------- running ----------
 
   function progressText(p) {
-    if (p.stage === 'simulation' && p.total) return `Simulating p-values: ${p.test} on ${p.series}, ${Math.floor(100 * p.done / p.total)}%`;
+    if (p.stage === 'simulation' && p.total) return `${p.series}, ${p.test}: replications ${p.done} of ${p.total}`;
     if (p.stage === 'test') return `Running ${p.test} on ${p.series}…`;
     if (p.stage === 'series' && p.total) return `${p.done} of ${p.total} series done`;
     return 'Working…';
@@ -429,11 +429,23 @@
     $('progress-text').textContent = 'Working…';
     status('Analysing…');
     const started = performance.now();
+    // One overall progress: series k of n, the test running, its
+    // replications, and the time left from the pace so far. The bar never
+    // goes back; within a series it moves with the simulation of the first
+    // simulated test and stops short of the series' end until it is done.
+    const picked = s.columns ? s.columns.length : (state.preview ? state.preview.series.length : 0);
+    const ov = { n: Math.max(1, picked), done: 0, within: 0, frac: 0 };
+    $('progress-text').textContent = `Series 1 of ${ov.n}…`;
     try {
       const doc = await engineCall('analyze', { name: state.name, bytes: state.bytes.slice(), settings: JSON.stringify(s) }, (p) => {
-        if (p.stage === 'simulation' && p.total) $('progress').value = Math.floor(100 * p.done / p.total);
-        else if (p.stage === 'series' && p.total) $('progress').value = Math.floor(100 * p.done / p.total);
-        $('progress-text').textContent = progressText(p);
+        if (p.stage === 'series') { ov.done++; ov.within = 0; ov.n = Math.max(ov.n, ov.done); }
+        else if (p.stage === 'simulation' && p.total) ov.within = Math.max(ov.within, Math.min(0.95, p.done / p.total));
+        ov.frac = Math.max(ov.frac, Math.min(1, (ov.done + ov.within) / ov.n));
+        $('progress').value = Math.floor(100 * ov.frac);
+        const secs = (performance.now() - started) / 1000;
+        const left = ov.frac > 0.02 && ov.frac < 1 ? ` · about ${Math.ceil(secs * (1 - ov.frac) / ov.frac)} s left` : '';
+        $('progress-text').textContent = `Series ${Math.min(ov.done + 1, ov.n)} of ${ov.n}` + (p.stage === 'series' ? '' : ': ' + progressText(p)) + left;
+        $('progress').dataset.overall = String(ov.frac);
       });
       state.lastDoc = doc;
       await renderFindings(doc);
@@ -489,7 +501,7 @@
   function resultRows(r) {
     const cv = r.critical_values || {};
     const rows = [el('tr', null,
-      el('th', { scope: 'row', 'data-label': 'Test' }, testName(r.test), el('span', { class: 'tag' }, r.test + (r.variant ? ' ' + r.variant : '')), el('span', { class: 'h0' }, 'H0: ' + r.null)),
+      el('th', { scope: 'row', 'data-label': 'Test' }, testName(r.test), el('span', { class: 'tag' }, [r.test, r.trend, r.variant].filter(Boolean).join(' · ')), el('span', { class: 'h0' }, 'H0: ' + r.null)),
       el('td', { class: 'num', 'data-label': 'Statistic' }, fmt(r.statistic)),
       el('td', { class: 'num', title: r.p_value_method, 'data-label': 'p-value' }, fmtP(r.p_value) + (r.p_value_sim !== undefined && r.p_value_sim !== null ? ` (sim. ${fmtP(r.p_value_sim)})` : '')),
       el('td', { class: 'num', 'data-label': '1%' }, fmt(cv['0.01'])),
