@@ -8,12 +8,15 @@ package breaks
 // 10(3), 301-320, from one to two breaks. Only a constant is allowed (the
 // series are non-trending; the trend setting is ignored with a warning).
 //
-// Innovational outlier (cmrio1, cmrio2; Perron & Vogelsang 1992 eq. (2),
+// The test id is "meanshift"; the outlier type (core.Config.Outlier) and the
+// number of shifts (core.Config.Shifts, 1 or 2) are settings.
+//
+// Innovational outlier (the default; Perron & Vogelsang 1992 eq. (2),
 // Clemente et al. 1998 eq. (3)), one step:
 //
 //	y_t = μ + Σ_j δ_j DU_jt + Σ_j θ_j D(TB_j)_t + ρ y_{t-1} + Σ_{i=1}^{k} c_i Δy_{t-i} + e_t.
 //
-// Additive outlier (cmrao1, cmrao2; Perron & Vogelsang 1992 eqs. (3)-(4),
+// Additive outlier ( Perron & Vogelsang 1992 eqs. (3)-(4),
 // Clemente et al. 1998 eqs. (1)-(2)), two steps: ỹ_t are the residuals of
 // y_t on [1, DU_jt]; then
 //
@@ -35,25 +38,27 @@ import (
 )
 
 func init() {
-	for _, c := range []struct{ id, name, cite string }{
-		{"cmrio1", "Perron-Vogelsang / Clemente-Montanes-Reyes innovational-outlier test, one mean shift", "Perron & Vogelsang (1992), JBES 10(3), IO model eq. (2)"},
-		{"cmrao1", "Perron-Vogelsang / Clemente-Montanes-Reyes additive-outlier test, one mean shift", "Perron & Vogelsang (1992), JBES 10(3), AO model eqs. (3)-(4)"},
-		{"cmrio2", "Clemente-Montanes-Reyes innovational-outlier test, two mean shifts", "Clemente, Montanes & Reyes (1998), Economics Letters 59(2), IO model eq. (3)"},
-		{"cmrao2", "Clemente-Montanes-Reyes additive-outlier test, two mean shifts", "Clemente, Montanes & Reyes (1998), Economics Letters 59(2), AO model eqs. (1)-(2)"},
-	} {
-		id := c.id
-		core.Register(core.Info{
-			ID:       id,
-			Name:     c.name,
-			Null:     "unit root; the mean shifts enter the null as one-time jumps",
-			Tail:     "left",
-			Citation: c.cite,
-			Run: func(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, error) {
-				return runCMR(ctx, id, y, cfg)
-			},
-			NewStat: func(T int, cfg *core.Config) core.StatFunc { return newStatADF(id, cfg) },
-		})
+	core.Register(core.Info{
+		ID:       "meanshift",
+		Name:     "Mean-shift unit-root test (Perron-Vogelsang one shift, Clemente-Montanes-Reyes two shifts; innovational or additive outlier)",
+		Null:     "unit root; the mean shifts enter the null as one-time jumps",
+		Tail:     "left",
+		Citation: "Perron & Vogelsang (1992), JBES 10(3), eqs. (2)-(4); Clemente, Montanes & Reyes (1998), Economics Letters 59(2), eqs. (1)-(3)",
+		Run: func(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, error) {
+			return runCMR(ctx, "meanshift", y, cfg)
+		},
+		NewStat: func(T int, cfg *core.Config) core.StatFunc { return newStatADF("meanshift", cfg) },
+	})
+}
+
+// meanShiftKey is the key of the meanshift test's tables under its
+// settings: "meanshift/innovational-1", "meanshift/additive-2", ...
+func meanShiftKey(a adfTest) string {
+	form := core.OutlierInnovational
+	if a.form == formAO {
+		form = core.OutlierAdditive
 	}
+	return fmt.Sprintf("meanshift/%s-%d", form, a.nb)
 }
 
 func runCMR(ctx context.Context, id string, y []float64, cfg *core.Config) (*schema.Result, error) {
@@ -74,7 +79,7 @@ func runCMR(ctx context.Context, id string, y []float64, cfg *core.Config) (*sch
 	if cfg.Trend != core.TrendConstant {
 		res.Warnings = append(res.Warnings, fmt.Sprintf("%s allows a constant only (Clemente, Montanes & Reyes 1998); the trend setting %q was ignored", id, cfg.Trend))
 	}
-	applySearchInference(res, id, "the minimum t statistic", cfg, nil)
+	applySearchInference(res, meanShiftKey(a), "the minimum t statistic", cfg, nil)
 	if info, e := core.Lookup(id); e == nil {
 		if err := core.AddSimulated(ctx, info, len(y), cfg, res); err != nil {
 			return nil, WrapError(id, err)

@@ -10,7 +10,7 @@ import (
 
 func FuzzCMR(f *testing.F) {
 	lmFuzzSeed(f, 40)
-	ids := []string{"cmrio1", "cmrao1", "cmrio2", "cmrao2", "lp"}
+	ids := []string{"meanshift/innovational-1", "meanshift/additive-1", "meanshift/innovational-2", "meanshift/additive-2", "lp"}
 	f.Fuzz(func(t *testing.T, data []byte, shift, lags uint8) {
 		id := ids[int(shift)%len(ids)]
 		lmFuzzRun(t, id, data, 0, lags, 50)
@@ -23,10 +23,10 @@ func FuzzCMR(f *testing.F) {
 func BenchmarkCMR(b *testing.B) {
 	for _, T := range []int{100, 200, 1000} {
 		y := lmSim(T, 1, 1, 0)
-		for _, id := range []string{"cmrio1", "cmrao1", "cmrio2", "cmrao2"} {
-			info, _ := core.Lookup(id)
+		for _, id := range []string{"meanshift/innovational-1", "meanshift/additive-1", "meanshift/innovational-2", "meanshift/additive-2"} {
+			tid, cfg := msCase(id, &core.Config{NoPath: true})
+			info, _ := core.Lookup(tid)
 			b.Run("T="+lmItoa(T)+"/"+id, func(b *testing.B) {
-				cfg := &core.Config{NoPath: true}
 				for b.Loop() {
 					if _, err := info.Run(context.Background(), y, cfg); err != nil {
 						b.Fatal(err)

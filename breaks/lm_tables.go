@@ -67,9 +67,9 @@ var (
 // Clemente, Montanes & Reyes (1998), two mean shifts, 5% (MEMORY, medium);
 // Perron & Vogelsang (1992), one mean shift, 5%, IO and AO (MEMORY, low/medium).
 const (
-	cmr2CV5  = -5.490
-	pvIO1CV5 = -4.27
-	pvAO1CV5 = -3.56
+	twoShiftCV5 = -5.490
+	pvIO1CV5    = -4.27
+	pvAO1CV5    = -3.56
 )
 
 // lmSimTable is a simulated null distribution summarised by its quantiles at
@@ -190,14 +190,14 @@ func (p *lmPub) complete() bool {
 
 // lmPubs holds the recalled rows by test variant.
 var lmPubs = map[string]lmPub{
-	"ls1/A":  {cv: ls1CrashCV, cite: "Lee & Strazicich (2013), crash model, T=100", key: "ls1/A@0.10"},
-	"ls2/A":  {cv: ls2CrashCV, cite: "Lee & Strazicich (2003), Table 2, crash model, T=100", key: "ls2/A@0.10", reproduced: true},
-	"lp/AA":  {cv: lpAACV, cite: "Lumsdaine & Papell (1997), model AA, T=100", key: "lp/AA", reproduced: true},
-	"lp/CC":  {cv: lpCCCV, cite: "Lumsdaine & Papell (1997), model CC, T=100", key: "lp/CC", reproduced: true},
-	"cmrio1": {cv: lmCV{math.NaN(), pvIO1CV5, math.NaN()}, cite: "Perron & Vogelsang (1992), IO, non-trending, 5%", key: "cmrio1"},
-	"cmrao1": {cv: lmCV{math.NaN(), pvAO1CV5, math.NaN()}, cite: "Perron & Vogelsang (1992), AO, non-trending, 5%", key: "cmrao1"},
-	"cmrio2": {cv: lmCV{math.NaN(), cmr2CV5, math.NaN()}, cite: "Clemente, Montanes & Reyes (1998), two mean shifts, 5%", key: "cmrio2"},
-	"cmrao2": {cv: lmCV{math.NaN(), cmr2CV5, math.NaN()}, cite: "Clemente, Montanes & Reyes (1998), two mean shifts, 5%", key: "cmrao2", reproduced: true},
+	"ls1/A":                    {cv: ls1CrashCV, cite: "Lee & Strazicich (2013), crash model, T=100", key: "ls1/A@0.10"},
+	"ls2/A":                    {cv: ls2CrashCV, cite: "Lee & Strazicich (2003), Table 2, crash model, T=100", key: "ls2/A@0.10", reproduced: true},
+	"lp/AA":                    {cv: lpAACV, cite: "Lumsdaine & Papell (1997), model AA, T=100", key: "lp/AA", reproduced: true},
+	"lp/CC":                    {cv: lpCCCV, cite: "Lumsdaine & Papell (1997), model CC, T=100", key: "lp/CC", reproduced: true},
+	"meanshift/innovational-1": {cv: lmCV{math.NaN(), pvIO1CV5, math.NaN()}, cite: "Perron & Vogelsang (1992), IO, non-trending, 5%", key: "meanshift/innovational-1"},
+	"meanshift/additive-1":     {cv: lmCV{math.NaN(), pvAO1CV5, math.NaN()}, cite: "Perron & Vogelsang (1992), AO, non-trending, 5%", key: "meanshift/additive-1"},
+	"meanshift/innovational-2": {cv: lmCV{math.NaN(), twoShiftCV5, math.NaN()}, cite: "Clemente, Montanes & Reyes (1998), two mean shifts, 5%", key: "meanshift/innovational-2"},
+	"meanshift/additive-2":     {cv: lmCV{math.NaN(), twoShiftCV5, math.NaN()}, cite: "Clemente, Montanes & Reyes (1998), two mean shifts, 5%", key: "meanshift/additive-2", reproduced: true},
 }
 
 // lmLagsOf classifies the lag settings: "tsig" (the default rule with

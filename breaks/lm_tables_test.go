@@ -89,11 +89,11 @@ func genLMTable(t *testing.T, sp lmTableSpec, T, reps int, seed uint64) lmSimTab
 
 func lmRegistered(id string, shift core.Shift, trim float64, lags string) func(T int) func(y []float64) (float64, error) {
 	return func(T int) func(y []float64) (float64, error) {
+		id, cfg := msCase(id, &core.Config{Shift: shift, Trim: trim})
 		info, err := core.Lookup(id)
 		if err != nil {
 			panic(err)
 		}
-		cfg := &core.Config{Shift: shift, Trim: trim}
 		if lags == "0" {
 			cfg.LagRule = core.LagFixed
 		}
@@ -110,10 +110,10 @@ func lmTableSpecs() []lmTableSpec {
 		{"ls2/A@0.10", 2000, 0.10, "0", lmRegistered("ls2", core.ShiftLevel, 0.10, "0")},
 		{"lp/AA", 2000, 0.15, "tsig", lmRegistered("lp", core.ShiftLevel, 0.15, "tsig")},
 		{"lp/CC", 2000, 0.15, "tsig", lmRegistered("lp", core.ShiftBoth, 0.15, "tsig")},
-		{"cmrio1", 10000, 0.15, "tsig", lmRegistered("cmrio1", core.ShiftLevel, 0.15, "tsig")},
-		{"cmrao1", 10000, 0.15, "tsig", lmRegistered("cmrao1", core.ShiftLevel, 0.15, "tsig")},
-		{"cmrio2", 2000, 0.15, "tsig", lmRegistered("cmrio2", core.ShiftLevel, 0.15, "tsig")},
-		{"cmrao2", 2000, 0.15, "tsig", lmRegistered("cmrao2", core.ShiftLevel, 0.15, "tsig")},
+		{"meanshift/innovational-1", 10000, 0.15, "tsig", lmRegistered("meanshift/innovational-1", core.ShiftLevel, 0.15, "tsig")},
+		{"meanshift/additive-1", 10000, 0.15, "tsig", lmRegistered("meanshift/additive-1", core.ShiftLevel, 0.15, "tsig")},
+		{"meanshift/innovational-2", 2000, 0.15, "tsig", lmRegistered("meanshift/innovational-2", core.ShiftLevel, 0.15, "tsig")},
+		{"meanshift/additive-2", 2000, 0.15, "tsig", lmRegistered("meanshift/additive-2", core.ShiftLevel, 0.15, "tsig")},
 	}
 	// Break model: the minimum LM statistic under the no-break null.
 	s = append(s,
@@ -210,7 +210,7 @@ func TestGenerateLMTables(t *testing.T) {
 }
 
 // TestRecalledValues pins every recalled critical value used by ls1, ls2,
-// lp and cmr* to its source. All are MEMORY values (not checked against
+// lp and meanshift to its source. All are MEMORY values (not checked against
 // the papers); see lm_tables.go and TestLMTablesReproduce for which ones
 // our simulation reproduces.
 func TestRecalledValues(t *testing.T) {
@@ -240,7 +240,7 @@ func TestRecalledValues(t *testing.T) {
 		{"lp AA", lpAACV[:], []float64{-6.74, -6.16, -5.89}},
 		{"lp CC", lpCCCV[:], []float64{-7.34, -6.82, -6.49}},
 		// Clemente, Montanes & Reyes (1998), Economics Letters 59(2), two mean shifts, 5%: MEMORY (m).
-		{"cmr 2 shifts 5%", []float64{cmr2CV5}, []float64{-5.490}},
+		{"meanshift 2 shifts 5%", []float64{twoShiftCV5}, []float64{-5.490}},
 		// Perron & Vogelsang (1992), JBES 10(3), non-trending, one shift, 5%, IO and AO: MEMORY (l/m).
 		{"pv IO 5%", []float64{pvIO1CV5}, []float64{-4.27}},
 		{"pv AO 5%", []float64{pvAO1CV5}, []float64{-3.56}},

@@ -264,16 +264,16 @@ func adfTestOf(id string, cfg *core.Config) (adfTest, error) {
 			return adfTest{id: id, form: formLP, nb: 2, slope: true}, nil
 		}
 		return adfTest{}, core.Errorf(id, core.ErrSettings, "shift %q: Lumsdaine & Papell define model AA (level) and model CC (level+slope) only", cfg.Shift)
-	case "cmrio1", "cmrio2", "cmrao1", "cmrao2":
+	case "meanshift":
 		if cfg.Shift != core.ShiftLevel {
-			return adfTest{}, core.Errorf(id, core.ErrSettings, "shift %q: Clemente, Montanes & Reyes test shifts in the mean (level) only", cfg.Shift)
+			return adfTest{}, core.Errorf(id, core.ErrSettings, "shift %q: the mean-shift test (Perron & Vogelsang; Clemente, Montanes & Reyes) allows shifts in the mean (level) only", cfg.Shift)
 		}
-		a := adfTest{id: id, form: formIO, nb: 1}
-		if id[3:5] == "ao" {
+		a := adfTest{id: id, form: formIO, nb: cfg.ShiftsOr()}
+		if cfg.Outlier == core.OutlierAdditive {
 			a.form = formAO
 		}
-		if id[5] == '2' {
-			a.nb = 2
+		if a.nb > 2 {
+			return adfTest{}, core.Errorf(id, core.ErrSettings, "%d shifts: want 1 or 2", a.nb)
 		}
 		return a, nil
 	}

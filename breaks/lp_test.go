@@ -100,7 +100,7 @@ func adfBrute(y []float64, a adfTest, tbs []int, spec lmLagSpec) (float64, int, 
 	return lmBruteSelect(spec, build, stat, last)
 }
 
-// TestADFFastVsBrute checks lp and cmr* against the full QR refit at
+// TestADFFastVsBrute checks lp and meanshift against the full QR refit at
 // candidates and over whole searches (common practice: differential testing).
 func TestADFFastVsBrute(t *testing.T) {
 	cases := []struct {
@@ -111,16 +111,16 @@ func TestADFFastVsBrute(t *testing.T) {
 	}{
 		{"lp", core.ShiftLevel, 50, lmLagSpec{core.LagTSig, 4}},
 		{"lp", core.ShiftBoth, 50, lmLagSpec{core.LagFixed, 2}},
-		{"cmrio1", core.ShiftLevel, 90, lmLagSpec{core.LagTSig, 8}},
-		{"cmrao1", core.ShiftLevel, 90, lmLagSpec{core.LagTSig, 8}},
-		{"cmrio2", core.ShiftLevel, 50, lmLagSpec{core.LagAIC, 3}},
-		{"cmrao2", core.ShiftLevel, 60, lmLagSpec{core.LagTSig, 3}},
-		{"cmrao2", core.ShiftLevel, 50, lmLagSpec{core.LagFixed, 0}},
+		{"meanshift/innovational-1", core.ShiftLevel, 90, lmLagSpec{core.LagTSig, 8}},
+		{"meanshift/additive-1", core.ShiftLevel, 90, lmLagSpec{core.LagTSig, 8}},
+		{"meanshift/innovational-2", core.ShiftLevel, 50, lmLagSpec{core.LagAIC, 3}},
+		{"meanshift/additive-2", core.ShiftLevel, 60, lmLagSpec{core.LagTSig, 3}},
+		{"meanshift/additive-2", core.ShiftLevel, 50, lmLagSpec{core.LagFixed, 0}},
 	}
 	for n, c := range cases {
 		t.Run(fmt.Sprintf("%s/%s/%v", c.id, c.shift, c.spec), func(t *testing.T) {
-			cfg := &core.Config{Shift: c.shift}
-			a, err := adfTestOf(c.id, cfg)
+			id, cfg := msCase(c.id, &core.Config{Shift: c.shift})
+			a, err := adfTestOf(id, cfg)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -190,19 +190,20 @@ func TestADFRun(t *testing.T) {
 	}{
 		{"lp", core.ShiftLevel, []float64{0.3, 0.65}},
 		{"lp", core.ShiftBoth, []float64{0.3, 0.65}},
-		{"cmrio1", core.ShiftLevel, []float64{0.5}},
-		{"cmrao1", core.ShiftLevel, []float64{0.5}},
-		{"cmrio2", core.ShiftLevel, []float64{0.3, 0.65}},
-		{"cmrao2", core.ShiftLevel, []float64{0.3, 0.65}},
+		{"meanshift/innovational-1", core.ShiftLevel, []float64{0.5}},
+		{"meanshift/additive-1", core.ShiftLevel, []float64{0.5}},
+		{"meanshift/innovational-2", core.ShiftLevel, []float64{0.3, 0.65}},
+		{"meanshift/additive-2", core.ShiftLevel, []float64{0.3, 0.65}},
 	} {
 		t.Run(c.id+"/"+c.shift.String(), func(t *testing.T) {
-			info, err := core.Lookup(c.id)
+			id, cfg := msCase(c.id, &core.Config{Shift: c.shift})
+			info, err := core.Lookup(id)
 			if err != nil {
 				t.Fatal(err)
 			}
 			T := 120
 			y := lmSim(T, 5, 0.3, 10, c.brk...)
-			res, err := info.Run(ctx, y, &core.Config{Shift: c.shift})
+			res, err := info.Run(ctx, y, cfg)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -213,7 +214,7 @@ func TestADFRun(t *testing.T) {
 			// up to k observations after TB, so the minimum-t date may lead
 			// the true one by up to k (Perron & Vogelsang 1992, section 4).
 			tol := 3
-			if c.id == "cmrao1" || c.id == "cmrao2" {
+			if cfg.Outlier == core.OutlierAdditive {
 				tol += res.Lags
 			}
 			for i, b := range res.Breaks {
@@ -227,9 +228,10 @@ func TestADFRun(t *testing.T) {
 		})
 	}
 	y := lmSim(80, 1, 1, 0)
-	for _, id := range []string{"lp", "cmrio1", "cmrao2"} {
-		info, _ := core.Lookup(id)
-		if _, err := info.Run(ctx, y, &core.Config{Shift: core.ShiftSlope}); err == nil {
+	for _, id := range []string{"lp", "meanshift/innovational-1", "meanshift/additive-2"} {
+		tid, cfg := msCase(id, &core.Config{Shift: core.ShiftSlope})
+		info, _ := core.Lookup(tid)
+		if _, err := info.Run(ctx, y, cfg); err == nil {
 			t.Errorf("%s: slope-only shift accepted", id)
 		}
 	}

@@ -1,7 +1,7 @@
 package breaks
 
 // Shared machinery of the Lee-Strazicich LM tests (ls1, ls2), the
-// Lumsdaine-Papell test (lp) and the Clemente-Montanes-Reyes tests (cmr*).
+// Lumsdaine-Papell test (lp) and the mean-shift test (meanshift, Clemente-Montanes-Reyes).
 //
 // Cross-product engine: every regressor is a short linear combination of
 // "atoms" — fixed data columns (y_{t-1}, Δy_t, Δy_{t-i}) and break atoms

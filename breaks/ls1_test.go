@@ -40,6 +40,7 @@ func lmFuzzRun(t *testing.T, id string, data []byte, shift, lags uint8, max int)
 	if lags%4 == 1 {
 		cfg.LagRule, cfg.Lags = core.LagFixed, int(lags%5)
 	}
+	id, cfg = msCase(id, cfg)
 	info, err := core.Lookup(id)
 	if err != nil {
 		t.Fatal(err)

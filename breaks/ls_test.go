@@ -334,17 +334,19 @@ func TestBreakLocation(t *testing.T) {
 		{"ls2", core.ShiftBoth, []float64{0.3, 0.65}, fixed0},
 		{"lp", core.ShiftLevel, []float64{0.3, 0.65}, core.Config{}},
 		{"lp", core.ShiftBoth, []float64{0.3, 0.65}, core.Config{}},
-		{"cmrio1", core.ShiftLevel, []float64{0.5}, core.Config{}},
-		{"cmrio2", core.ShiftLevel, []float64{0.3, 0.65}, core.Config{}},
-		{"cmrao2", core.ShiftLevel, []float64{0.3, 0.65}, fixed0},
+		{"meanshift/innovational-1", core.ShiftLevel, []float64{0.5}, core.Config{}},
+		{"meanshift/innovational-2", core.ShiftLevel, []float64{0.3, 0.65}, core.Config{}},
+		{"meanshift/additive-2", core.ShiftLevel, []float64{0.3, 0.65}, fixed0},
 	} {
-		info, _ := core.Lookup(c.id)
+		id, _ := msCase(c.id, nil)
+		info, _ := core.Lookup(id)
 		hits := 0
 		const n, T = 20, 150
 		for s := 0; s < n; s++ {
 			y := lmSim(T, uint64(1000+s), 0.3, 10, c.brk...)
 			cfg := c.cfg
 			cfg.Shift, cfg.NoPath = c.shift, true
+			msCase(c.id, &cfg)
 			r, err := info.Run(ctx, y, &cfg)
 			if err != nil {
 				t.Fatal(err)
@@ -425,7 +427,7 @@ func TestLMNoAlloc(t *testing.T) {
 	}
 	var aw adfWork
 	aw.setup(y, spec.k)
-	at := adfTest{id: "cmrao2", form: formAO, nb: 2}
+	at := adfTest{id: "meanshift", form: formAO, nb: 2}
 	aw.stat(at, tbs, spec)
 	if a := testing.AllocsPerRun(50, func() { aw.stat(at, tbs, spec) }); a != 0 {
 		t.Errorf("adfWork.stat allocates %v times per candidate", a)
@@ -471,7 +473,7 @@ func TestLMErrors(t *testing.T) {
 }
 
 // TestExactFitLMTwins checks, candidate by candidate on noiseless series,
-// that the fast LM (ls1) and ADF-type (lp, cmr*) statistics and their
+// that the fast LM (ls1) and ADF-type (lp, meanshift) statistics and their
 // brute-force twins agree on the exact-fit rule (ExactFitTol): both report
 // an exact fit, or both give the same statistic (common practice, no source).
 func TestExactFitLMTwins(t *testing.T) {
@@ -513,8 +515,8 @@ func TestExactFitLMTwins(t *testing.T) {
 				bs, bk, berr := lmBrute(s.y, m, []int{tb}, spec)
 				check(s.name+"/ls1", tb, fs, fk, ferr, bs, bk, berr)
 			}
-			for _, id := range []string{"lp", "cmrio1", "cmrao1"} {
-				a, err := adfTestOf(id, &core.Config{})
+			for _, id := range []string{"lp", "meanshift/innovational-1", "meanshift/additive-1"} {
+				a, err := adfTestOf(msCase(id, &core.Config{}))
 				if err != nil {
 					t.Fatal(err)
 				}

@@ -345,21 +345,22 @@ func TestExactFitSeries(t *testing.T) {
 		trend[i] = 2 + 0.5*float64(i+1)
 		cons[i] = 3
 	}
-	ids := []string{"p89", "za", "pio", "pao", "ls1", "ls2", "lp", "cmrao1", "cmrio1", "cmrao2", "cmrio2", "sadf", "gsadf"}
+	ids := []string{"p89", "za", "pio", "pao", "ls1", "ls2", "lp", "meanshift/additive-1", "meanshift/innovational-1", "meanshift/additive-2", "meanshift/innovational-2", "sadf", "gsadf"}
 	for _, s := range []struct {
 		name string
 		y    []float64
 	}{{"alternating", alt}, {"alternating60", alt[:60]}, {"step", step}, {"trend", trend}, {"constant", cons}} {
 		for _, id := range ids {
 			t.Run(s.name+"/"+id, func(t *testing.T) {
-				info, err := core.Lookup(id)
+				tid, cfg := msCase(id, &core.Config{BreakIndex: 60})
+				info, err := core.Lookup(tid)
 				if err != nil {
 					t.Fatal(err)
 				}
-				r, err := info.Run(context.Background(), s.y, &core.Config{BreakIndex: 60})
+				r, err := info.Run(context.Background(), s.y, cfg)
 				if err != nil {
 					var ce *core.Error
-					if !errors.As(err, &ce) || ce.Test != id {
+					if !errors.As(err, &ce) || ce.Test != tid {
 						t.Errorf("error %v is not a *core.Error of %s", err, id)
 					}
 					if s.name == "constant" && !errors.Is(err, core.ErrConstant) {
@@ -375,7 +376,7 @@ func TestExactFitSeries(t *testing.T) {
 					// search that met no exact fit: at TB = 60 the IO and
 					// LM regressions fit exactly, so they must fail.
 					switch id {
-					case "za", "pio", "ls1", "cmrio1":
+					case "za", "pio", "ls1", "meanshift/innovational-1":
 						t.Errorf("step: %s reported %v at %v instead of the exact-fit error", id, *r.Statistic, r.Breaks)
 					}
 				}

@@ -104,17 +104,6 @@ func dfWrap(id string, err error) error {
 	return &Error{Test: id, Err: err}
 }
 
-// dfVariant names the τ statistic for trend.
-func dfVariant(trend Trend) string {
-	switch trend {
-	case TrendNone:
-		return "tau_nc"
-	case TrendLinear:
-		return "tau_ct"
-	}
-	return "tau_c"
-}
-
 // adfFit chooses the lag order and fits the ADF regression of y under cfg.
 // The *DFFit is owned by w.
 func adfFit(w *DFWork, y []float64, cfg *Config) (*DFFit, LagRule, int, error) {
@@ -142,7 +131,6 @@ func runADF(ctx context.Context, y []float64, cfg *Config) (*schema.Result, erro
 	level := cfg.LevelOr()
 	res := &schema.Result{
 		Test:      id,
-		Variant:   dfVariant(cfg.Trend),
 		Trend:     cfg.Trend.String(),
 		Statistic: schema.F(f.TStat),
 		Tail:      "left",
@@ -155,7 +143,7 @@ func runADF(ctx context.Context, y []float64, cfg *Config) (*schema.Result, erro
 	p, bounded := DFPValue(f.TStat, cfg.Trend, f.NObs, cfg.RightTail)
 	if cfg.RightTail {
 		res.Tail = "right"
-		res.Variant += " right-tailed"
+		res.Variant = "right-tailed"
 		res.CriticalValues = map[string]float64{}
 		for _, a := range []float64{0.01, 0.05, 0.10} {
 			res.CriticalValues[schema.LevelKey(a)] = TableQuantile(dfTableName(cfg.Trend), 1-a)

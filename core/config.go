@@ -211,6 +211,37 @@ func ParseShift(s string) (Shift, error) {
 	return 0, fmt.Errorf("%w: shift %q (want level, slope or level+slope)", ErrSettings, s)
 }
 
+// Outlier says how the mean shifts of the meanshift test enter the series
+// (Perron & Vogelsang 1992, section 2).
+type Outlier int
+
+const (
+	// OutlierInnovational (zero value): the shift builds up gradually
+	// through the series' own dynamics (one regression).
+	OutlierInnovational Outlier = iota
+	// OutlierAdditive: the shift is immediate; the mean is removed first,
+	// then the unit-root regression runs on the residuals (two steps).
+	OutlierAdditive
+)
+
+func (o Outlier) String() string {
+	if o == OutlierAdditive {
+		return "additive"
+	}
+	return "innovational"
+}
+
+// ParseOutlier reads "innovational" (or ""), "additive".
+func ParseOutlier(s string) (Outlier, error) {
+	switch s {
+	case "", "innovational":
+		return OutlierInnovational, nil
+	case "additive":
+		return OutlierAdditive, nil
+	}
+	return 0, fmt.Errorf("%w: outlier %q (want innovational or additive)", ErrSettings, s)
+}
+
 // Config is the resolved setting of one test run. The zero value means every
 // documented default: constant term, the method's own lag rule with Schwert's
 // maximum, Bartlett kernel with Newey-West bandwidth, 5% level, level shift,
@@ -264,6 +295,13 @@ type Config struct {
 	MinWindow float64
 	// MaxBreaks bounds bp; 0 means 5.
 	MaxBreaks int
+	// Outlier is how the shifts of the meanshift test enter: innovational
+	// (zero value, default) or additive.
+	Outlier Outlier
+	// Shifts is the number of mean shifts of the meanshift test: 1 or 2;
+	// 0 means 1 (Perron & Vogelsang 1992); 2 is Clemente, Montanes & Reyes
+	// (1998).
+	Shifts int
 	// Dates labels observations (optional; len must equal the series length).
 	Dates []string
 	// NoPath drops per-candidate paths and sequences from results (used in simulation).
@@ -286,6 +324,14 @@ func (c *Config) TrimOr() float64 {
 		return 0.15
 	}
 	return c.Trim
+}
+
+// ShiftsOr returns the number of mean shifts of the meanshift test, 1 when unset.
+func (c *Config) ShiftsOr() int {
+	if c == nil || c.Shifts <= 0 {
+		return 1
+	}
+	return c.Shifts
 }
 
 // SchwertMax is Schwert's (1989) rule floor(12 (T/100)^(1/4)).

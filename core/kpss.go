@@ -110,7 +110,6 @@ func runKPSS(ctx context.Context, y []float64, cfg *Config) (*schema.Result, err
 	level := cfg.LevelOr()
 	res := &schema.Result{
 		Test:      id,
-		Variant:   "eta_mu",
 		Trend:     "constant",
 		Statistic: schema.F(eta),
 		Tail:      "right",
@@ -120,9 +119,9 @@ func runKPSS(ctx context.Context, y []float64, cfg *Config) (*schema.Result, err
 		Bandwidth: &bw,
 		Kernel:    cfg.Kernel.String(),
 	}
-	tab := "kpss_mu"
+	tab := "kpss/constant"
 	if trendCase {
-		res.Variant, res.Trend, res.Null, tab = "eta_tau", "linear", kpssNullTrend, "kpss_tau"
+		res.Trend, res.Null, tab = "linear", kpssNullTrend, "kpss/linear"
 	}
 	if cfg.Trend == TrendNone {
 		res.Warnings = append(res.Warnings, "trend none is not defined for KPSS; the level-stationarity statistic η_μ (constant) was computed")

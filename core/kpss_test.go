@@ -80,7 +80,7 @@ func TestKPSSBehaviour(t *testing.T) {
 		}
 	}
 	res, err := runKPSS(context.Background(), dfRW(50, 0, 1), &Config{Trend: TrendNone})
-	if err != nil || res.Variant != "eta_mu" || len(res.Warnings) == 0 {
+	if err != nil || res.Trend != "constant" || len(res.Warnings) == 0 {
 		t.Errorf("trend none should run η_μ with a warning: %v %+v", err, res)
 	}
 }

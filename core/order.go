@@ -24,6 +24,7 @@ package core
 import (
 	"context"
 	"fmt"
+	"strings"
 
 	"github.com/rootshift/rootshift/core/schema"
 )
@@ -55,7 +56,7 @@ func TestOrder(ctx context.Context, y []float64, cfg *Config) (order int, result
 	if err != nil {
 		return 0, nil, err
 	}
-	r2.Variant += " on first difference"
+	r2.Variant = strings.TrimPrefix(r2.Variant+", on first difference", ", ")
 	results = append(results, r2)
 	if !r2.Reject {
 		return 2, results, nil

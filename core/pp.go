@@ -89,11 +89,11 @@ func PhillipsPerron(w *DFWork, y []float64, trend Trend, kernel Kernel, rule Ban
 func zaTableName(trend Trend) string {
 	switch trend {
 	case TrendNone:
-		return "za_nc"
+		return "df-bias/none"
 	case TrendLinear:
-		return "za_ct"
+		return "df-bias/linear"
 	}
-	return "za_c"
+	return "df-bias/constant"
 }
 
 func runPP(ctx context.Context, y []float64, cfg *Config) (*schema.Result, error) {

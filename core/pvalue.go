@@ -103,11 +103,11 @@ func quantileFrom(q []float64, p float64) float64 {
 func dfTableName(trend Trend) string {
 	switch trend {
 	case TrendNone:
-		return "tau_nc"
+		return "df-t/none"
 	case TrendLinear:
-		return "tau_ct"
+		return "df-t/linear"
 	}
-	return "tau_c"
+	return "df-t/constant"
 }
 
 // dfShiftedQuantiles returns the τ quantiles shifted to agree with the
@@ -170,8 +170,8 @@ func DFPValueMethod(right bool) string {
 }
 
 // TablePValue returns the p-value of stat in the generated asymptotic table
-// name ("tau_nc", "tau_c", "tau_ct", "za_nc", "za_c", "za_ct", "kpss_mu",
-// "kpss_tau"), lower tail or upper tail when right is true.
+// name ("df-t/none", "df-t/constant", "df-t/linear", "df-bias/none", "df-bias/constant", "df-bias/linear", "kpss/constant",
+// "kpss/linear"), lower tail or upper tail when right is true.
 func TablePValue(name string, stat float64, right bool) (p float64, bounded bool) {
 	tab := asymTable(name)
 	if tab == nil {

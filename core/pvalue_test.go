@@ -21,7 +21,7 @@ func TestPValueTablesWellFormed(t *testing.T) {
 			t.Errorf("%g is not a grid probability", p)
 		}
 	}
-	for _, name := range []string{"tau_nc", "tau_c", "tau_ct", "za_nc", "za_c", "za_ct", "kpss_mu", "kpss_tau"} {
+	for _, name := range []string{"df-t/none", "df-t/constant", "df-t/linear", "df-bias/none", "df-bias/constant", "df-bias/linear", "kpss/constant", "kpss/linear"} {
 		tab := asymTable(name)
 		if tab == nil {
 			t.Fatalf("table %s missing", name)
@@ -68,8 +68,8 @@ func TestPValueSimulationMatchesMacKinnon(t *testing.T) {
 // to three decimals.
 func TestPValueSimulationMatchesKPSS(t *testing.T) {
 	table1 := map[string]map[float64]float64{
-		"kpss_mu":  {0.90: 0.347, 0.95: 0.463, 0.975: 0.574, 0.99: 0.739},
-		"kpss_tau": {0.90: 0.119, 0.95: 0.146, 0.975: 0.176, 0.99: 0.216},
+		"kpss/constant": {0.90: 0.347, 0.95: 0.463, 0.975: 0.574, 0.99: 0.739},
+		"kpss/linear":   {0.90: 0.119, 0.95: 0.146, 0.975: 0.176, 0.99: 0.216},
 	}
 	for name, cv := range table1 {
 		tab := asymTable(name)
@@ -88,7 +88,7 @@ func TestPValueSimulationMatchesKPSS(t *testing.T) {
 // memory (Fuller 1976, Table 8.5.1), not confirmed; a loose check of our
 // simulated Z(α) table.
 func TestPValueNormalizedBiasFromMemory(t *testing.T) {
-	for name, want := range map[string]float64{"za_nc": -8.1, "za_c": -14.1, "za_ct": -21.8} {
+	for name, want := range map[string]float64{"df-bias/none": -8.1, "df-bias/constant": -14.1, "df-bias/linear": -21.8} {
 		if q := TableQuantile(name, 0.05); math.Abs(q-want) > 0.3 {
 			t.Errorf("%s 5%%: %.3f, from memory %.1f", name, q, want)
 		}
@@ -125,7 +125,7 @@ func TestPValueAdjustedToMacKinnon(t *testing.T) {
 	if p, b := DFPValue(-50, TrendConstant, 100, false); !b || p != genProbs[0] {
 		t.Errorf("far-left statistic: %g bounded %v", p, b)
 	}
-	if p, b := TablePValue("kpss_mu", 50, true); !b || math.Abs(p-(1-genProbs[len(genProbs)-1])) > 1e-12 {
+	if p, b := TablePValue("kpss/constant", 50, true); !b || math.Abs(p-(1-genProbs[len(genProbs)-1])) > 1e-12 {
 		t.Errorf("far-right KPSS: %g bounded %v", p, b)
 	}
 	if p, _ := TablePValue("nope", 1, false); !math.IsNaN(p) {

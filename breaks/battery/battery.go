@@ -47,6 +47,9 @@ func AnalyzeText(ctx context.Context, name string, data []byte, s schema.Setting
 	dopt := dataset.OptionsFor(s)
 	var t *dataset.Table
 	var err error
+	if s.Long != nil {
+		return analyzeLong(ctx, name, data, s, opt)
+	}
 	if strings.HasSuffix(strings.ToLower(name), ".xlsx") {
 		t, err = dataset.ReadXLSX(name, data, dopt)
 	} else {

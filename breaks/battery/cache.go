@@ -54,12 +54,15 @@ type cacheKey struct {
 	// Period and NoSeasonalDummies change the seasonal test's null.
 	Period            int  `json:"period"`
 	NoSeasonalDummies bool `json:"no_seasonal_dummies"`
+	// Outlier and Shifts choose the meanshift test's model.
+	Outlier string `json:"outlier"`
+	Shifts  int    `json:"shifts"`
 }
 
 func keyOf(id string, T int, c *core.Config) string {
 	k := cacheKey{id, T, c.Trend.String(), c.LagRule.String(), c.Lags, c.MaxLags, c.Kernel.String(),
 		c.BandwidthRule.String(), c.Bandwidth, c.Shift.String(), c.TrimOr(), c.BreakIndex, c.RightTail,
-		c.MinWindow, c.MaxBreaks, c.Sims, c.Seed, c.Period, c.NoSeasonalDummies}
+		c.MinWindow, c.MaxBreaks, c.Sims, c.Seed, c.Period, c.NoSeasonalDummies, c.Outlier.String(), c.ShiftsOr()}
 	b, _ := json.Marshal(k)
 	return string(b)
 }

@@ -23,7 +23,7 @@ func FuzzAnalyzeText(f *testing.F) {
 		{Tests: []string{"adf", "kpss", "za"}},
 		{Tests: []string{"pp", "dfgls", "ls1"}, Transform: "diff"},
 		{Tests: []string{"mtests", "sadf", "bp"}, Transform: "log"},
-		{Tests: []string{"p89", "cmrio1"}, BreakDate: "5"},
+		{Tests: []string{"p89", "meanshift"}, BreakDate: "5", Outlier: "additive", Shifts: 2},
 		{},
 	}
 	f.Fuzz(func(t *testing.T, data []byte, which uint8) {

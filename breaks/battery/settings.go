@@ -69,6 +69,12 @@ func Validate(s schema.Settings) error {
 	if _, err := core.ParseShift(s.Shift); err != nil {
 		return usage("shift", "%q: want level, slope or level+slope", s.Shift)
 	}
+	if _, err := core.ParseOutlier(s.Outlier); err != nil {
+		return usage("outlier", "%q: want innovational or additive", s.Outlier)
+	}
+	if s.Shifts != 0 && s.Shifts != 1 && s.Shifts != 2 {
+		return usage("shifts", "%d: want 1 or 2", s.Shifts)
+	}
 	if s.Trim != 0 && !(s.Trim >= 0.01 && s.Trim < 0.5) {
 		return usage("trim", "%g: want a fraction between 0.01 and 0.5", s.Trim)
 	}
@@ -131,6 +137,8 @@ func baseConfig(s schema.Settings, dates []string) *core.Config {
 		c.BandwidthRule, c.Bandwidth = core.BandwidthFixed, *s.Bandwidth
 	}
 	c.Shift, _ = core.ParseShift(s.Shift)
+	c.Outlier, _ = core.ParseOutlier(s.Outlier)
+	c.Shifts = s.Shifts
 	return c
 }
 

@@ -38,7 +38,7 @@ func TestValueIntegers(t *testing.T) {
 
 func TestShortVariant(t *testing.T) {
 	for _, tc := range []struct{ in, short, detail string }{
-		{"tau_c", "tau_c", ""},
+		{"right-tailed", "right-tailed", ""},
 		{"crash (model A)", "crash (model A)", ""},
 		{"statistic = UDmax (q=1, pure structural change, trimming 0.15, M=5)", "UDmax", "q=1, pure structural change, trimming 0.15, M=5"},
 		{"log levels, right-tailed with trend, observations 1-42", "log levels", "right-tailed with trend, observations 1-42"},

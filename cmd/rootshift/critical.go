@@ -298,7 +298,7 @@ func nullDGP(info core.Info) string {
 
 func isBreakTest(id string) bool {
 	switch id {
-	case "za", "p89", "pio", "pao", "ls1", "ls2", "lp", "cmrao1", "cmrio1", "cmrao2", "cmrio2", "py":
+	case "za", "p89", "pio", "pao", "ls1", "ls2", "lp", "meanshift", "py":
 		return true
 	}
 	return false
@@ -387,7 +387,7 @@ func resolveLags(id string, cfg *core.Config, T int) lagPlan {
 			return lagPlan{Rule: "fixed", Lags: &k, Source: "test default: lag 0 in every window"}
 		}
 		return schwert(cfg.LagRule, cfg.Trend.NumDet(), "; further capped so the minimum window keeps 3 degrees of freedom")
-	case "za", "p89", "pio", "pao", "ls1", "ls2", "lp", "cmrao1", "cmrio1", "cmrao2", "cmrio2":
+	case "za", "p89", "pio", "pao", "ls1", "ls2", "lp", "meanshift":
 		k := breaks.DefaultMaxLags
 		src := fmt.Sprintf("test default (%d), as in Perron 1989, Zivot & Andrews 1992, Lee & Strazicich 2003", k)
 		if cfg.MaxLags > 0 {

@@ -82,6 +82,8 @@ func settingsFlags(fs *flag.FlagSet, s *schema.Settings) {
 	fs.BoolVar(&s.RightTail, "right-tail", false, "adf against an explosive root (right-tailed)")
 	fs.Float64Var(&s.MinWindow, "min-window", 0, "sadf/gsadf minimum window fraction (default 0.01+1.8/sqrt(T))")
 	fs.IntVar(&s.MaxBreaks, "max-breaks", 0, "bp: largest number of breaks (default 5)")
+	fs.StringVar(&s.Outlier, "outlier", "", "meanshift: how the mean shifts enter, innovational (default, gradually) or additive (at once)")
+	fs.IntVar(&s.Shifts, "shifts", 0, "meanshift: number of mean shifts, 1 (default) or 2")
 	fs.Var(listFlag{&s.Columns}, "columns", "comma-separated series (column `names`) to test (default: every numeric column)")
 	fs.StringVar(&s.From, "from", "", "first observation of the sample (date or number)")
 	fs.StringVar(&s.To, "to", "", "last observation of the sample (date or number)")

@@ -55,12 +55,21 @@ func (e *env) test(args []string) int {
 	fs.StringVar(&o.out, "out", "", "write the output to this `file` instead of standard output")
 	fs.BoolVar(&o.quiet, "quiet", false, "no progress messages on standard error")
 	outputFlags(fs, &o)
+	var long bool
+	var lc schema.LongColumns
+	fs.BoolVar(&long, "long", false, "the files are long tables: one row per series id, date and value")
+	fs.StringVar(&lc.ID, "id-col", "id", "long tables: series id `column`")
+	fs.StringVar(&lc.Date, "date-col", "date", "long tables: date `column`")
+	fs.StringVar(&lc.Value, "value-col", "value", "long tables: value `column`")
 	files, err := parseInterleaved(fs, args)
 	if err != nil {
 		return e.usageExit(err)
 	}
 	if err := checkGivenZeros(fs); err != nil {
 		return e.usageExit(err)
+	}
+	if long {
+		s.Long = &lc
 	}
 	if len(files) == 0 {
 		e.errorf("test: no input file (try rootshift demo for the built-in data)")
@@ -175,6 +184,21 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			e.errorf("%s: nothing to process: the input is empty (exit status %d)", name, exitNothing)
 			return exitNothing
 		}
+		if s.Long != nil {
+			// A long table: one series per id, each with its own dates.
+			tables, failed, err := battery.ReadLong(name, data, s)
+			if err != nil {
+				e.errorf("%s: %v", name, err)
+				return exitUsage
+			}
+			for _, f := range failed {
+				e.errorf("%s: series %s: %v", name, f.ID, f.Err)
+			}
+			for _, t := range tables {
+				parsed = append(parsed, parsedFile{name, t})
+			}
+			continue
+		}
 		dopt := dataset.OptionsFor(s)
 		var t *dataset.Table
 		if strings.HasSuffix(strings.ToLower(name), ".xlsx") {
@@ -183,6 +207,11 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			t, err = dataset.Parse(name, data, dopt)
 		}
 		if err != nil {
+			if lc := battery.DetectLong(name, data, s); lc != nil && s.Long == nil {
+				e.errorf("%s: %v\n  this looks like a long table (ids in %q, dates in %q, values in %q): add --long --id-col %s --date-col %s --value-col %s",
+					name, err, or(lc.ID, "id"), or(lc.Date, "date"), or(lc.Value, "value"), or(lc.ID, "id"), or(lc.Date, "date"), or(lc.Value, "value"))
+				return exitUsage
+			}
 			e.errorf("%s: %v", name, err)
 			return exitUsage
 		}
@@ -447,4 +476,12 @@ func (e *env) listTests() int {
 		fmt.Fprintf(e.stdout, "%-8s %s\n         H0: %s\n         %s\n", id, info.Name, info.Null, info.Citation)
 	}
 	return exitOK
+}
+
+// or returns s, or def when s is empty.
+func or(s, def string) string {
+	if s == "" {
+		return def
+	}
+	return s
 }

@@ -57,6 +57,13 @@ type Settings struct {
 	MinWindow float64 `json:"min_window,omitempty"`
 	// MaxBreaks bounds the number of breaks for bp; 0 means 5.
 	MaxBreaks int `json:"max_breaks,omitempty"`
+	// Outlier is how the mean shifts of the meanshift test enter the series:
+	// "innovational" (default, empty: gradually, through the series' own
+	// dynamics) or "additive" (at once).
+	Outlier string `json:"outlier,omitempty"`
+	// Shifts is the number of mean shifts of the meanshift test: 1 or 2;
+	// 0 means 1.
+	Shifts int `json:"shifts,omitempty"`
 
 	// Input selection, applied before testing.
 
@@ -87,4 +94,17 @@ type Settings struct {
 	// Sheet names the .xlsx worksheet to read; empty: the first sheet
 	// holding data.
 	Sheet string `json:"sheet,omitempty"`
+	// Long reads the input as a long table, one row per series id, date and
+	// value, each id becoming one series; nil: a wide table (one column per
+	// series).
+	Long *LongColumns `json:"long,omitempty"`
+}
+
+// LongColumns names the columns of a long table; an empty name means "id",
+// "date" or "value" (matched ignoring case). The date column may be absent
+// from the file.
+type LongColumns struct {
+	ID    string `json:"id,omitempty"`
+	Date  string `json:"date,omitempty"`
+	Value string `json:"value,omitempty"`
 }

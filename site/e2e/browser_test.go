@@ -408,6 +408,9 @@ func TestPageInBrowser(t *testing.T) {
 		chromedp.WaitVisible(chromedp.CSS("#preview table")),
 		chromedp.WaitEnabled(chromedp.ID("run")),
 		chromedp.Click(chromedp.ID("run")),
+		chromedp.WaitVisible(chromedp.CSS("#overview table")),
+		// With more than three series each detail starts closed; open the first.
+		chromedp.Evaluate[chromedp.Void](`document.querySelector('#results article details').open = true`),
 		chromedp.WaitVisible(chromedp.CSS("#results article figure svg")),
 	)
 	if err != nil {

@@ -151,7 +151,8 @@
 
   // ---------- page state ----------
 
-  const state = { name: '', bytes: null, about: null, preview: null, running: false, lastDoc: null };
+  // long: the long-table reading the user confirmed (settings.long), null for a wide table.
+  const state = { name: '', bytes: null, about: null, preview: null, running: false, lastDoc: null, long: null };
 
   const status = (msg, isError) => {
     const el = $('status');
@@ -182,6 +183,7 @@
   // ---------- data input ----------
 
   function setData(name, bytes) {
+    state.long = null;
     state.name = name;
     state.bytes = bytes;
     refreshPreview();
@@ -218,12 +220,10 @@
     } catch (err) { status(err.message, true); }
   });
 
-  // Settings that select the input (they change the preview).
-  const inputSettingIds = ['s-from', 's-to', 's-transform', 's-datecol', 's-dateformat', 's-gaps', 's-sheet'];
+  // Settings that select the input (they change the preview) are marked
+  // "input" in the engine's settings description.
   let previewTimer = 0;
-  for (const id of inputSettingIds) {
-    $(id).addEventListener('input', () => { clearTimeout(previewTimer); previewTimer = setTimeout(refreshPreview, 350); });
-  }
+  const onInputSetting = () => { clearTimeout(previewTimer); previewTimer = setTimeout(refreshPreview, 350); };
 
   async function refreshPreview() {
     if (!state.bytes) return;
@@ -234,7 +234,7 @@
       const p = await engineCall('inspect', { name: state.name, bytes: state.bytes.slice(), settings: JSON.stringify(s) });
       state.preview = p;
       renderPreview(p);
-      $('run').disabled = false;
+      $('run').disabled = p.series.length === 0;
       status('Ready: choose what to test, then press “Find out”.');
     } catch (err) {
       box.replaceChildren(el('p', { class: 'errors' }, 'Could not read the data: ' + err.message));
@@ -264,27 +264,56 @@
         el('td', null, el('label', { class: 'choice' },
           el('input', { type: 'checkbox', 'data-col': c.name, checked: checked ? true : null, 'aria-label': 'analyse ' + c.name }),
           el('span', null, c.name))),
-        el('td', { class: 'num' }, c.n),
-        el('td', { class: 'num' }, c.missing),
-        el('td', { class: 'num' }, fmt(c.min, 2)),
-        el('td', { class: 'num' }, fmt(c.max, 2)),
-        el('td', { class: sel && sel.error ? 'errors' : '' }, use));
+        el('td', { class: 'num', 'data-label': 'Obs.' }, c.n),
+        el('td', { class: 'num', 'data-label': 'Missing' }, c.missing),
+        el('td', { class: 'num', 'data-label': 'Min' }, fmt(c.min, 2)),
+        el('td', { class: 'num', 'data-label': 'Max' }, fmt(c.max, 2)),
+        el('td', { class: sel && sel.error ? 'errors' : '', 'data-label': 'Used' }, use));
     });
-    const table = el('div', { class: 'table-wrap' }, el('table', null,
+    const table = el('div', { class: 'table-wrap' }, el('table', { class: 'stack' },
       el('caption', { class: 'sr-only' }, 'Series found in the data'),
       el('thead', null, el('tr', null, ...['Series', 'Obs.', 'Missing', 'Min', 'Max', 'Used in the analysis'].map((h) => el('th', { scope: 'col' }, h)))),
       el('tbody', null, ...rows)));
-    const parts = [el('h3', null, 'What was read', el('span', { class: 'tag' }, p.name)), el('p', { class: 'small' }, facts.join(' · ')), table];
+    const pick = (on) => { for (const cb of box.querySelectorAll('input[data-col]')) cb.checked = on; };
+    const all = el('button', { type: 'button', id: 'cols-all' }, 'Select all');
+    const none = el('button', { type: 'button', id: 'cols-none' }, 'Select none');
+    all.addEventListener('click', () => pick(true));
+    none.addEventListener('click', () => pick(false));
+    const parts = [el('h3', null, 'What was read', el('span', { class: 'tag' }, p.name)), el('p', { class: 'small' }, facts.join(' · ')),
+      el('div', { class: 'actions small' }, all, none)];
+    // Many series: the table of series starts closed (its checkboxes still count).
+    const wasOpen = box.querySelector('details.series-table');
+    const many = p.series.length > 8;
+    parts.push(many ? el('details', { class: 'series-table', open: wasOpen && wasOpen.open ? true : null },
+      el('summary', { class: 'small' }, `The ${p.series.length} series: which to test`), table) : table);
     if (p.select_error) parts.push(el('p', { class: 'errors' }, p.select_error));
+    // A long table (one row per id, date and value) is offered, never assumed.
+    const colsText = (lc) => `ids in “${lc.id || 'id'}”, dates in “${lc.date || 'date'}”, values in “${lc.value || 'value'}”`;
+    if (p.long_detected && !p.long) {
+      const yes = el('button', { type: 'button', id: 'read-long', class: 'primary' }, 'Read it as a long table');
+      yes.addEventListener('click', () => { state.long = p.long_detected; refreshPreview(); });
+      parts.unshift(el('div', { class: 'long-offer', id: 'long-offer' },
+        el('p', null, 'This looks like a long table, one row per series: ' + colsText(p.long_detected) + '.'), yes));
+    }
+    if (p.long) {
+      const no = el('button', { type: 'button', id: 'read-wide' }, 'Read it as a wide table instead');
+      no.addEventListener('click', () => { state.long = null; refreshPreview(); });
+      parts.splice(2, 0, el('p', { class: 'small' }, 'Read as a long table: ' + colsText(p.long) + '. ', no));
+    }
     if (p.warnings && p.warnings.length) parts.push(el('ul', { class: 'tight small muted' }, ...p.warnings.map((w) => el('li', null, w))));
     box.replaceChildren(...parts);
-    if (p.first_date) {
+    if (p.first_date && $('s-from') && $('s-to')) {
       $('s-from').placeholder = p.first_date;
       $('s-to').placeholder = p.last_date;
     }
   }
 
   // ---------- settings ----------
+
+  // The settings form is built from the engine's description
+  // (battery.SettingsDescription via about.settings): labels, defaults,
+  // choices and what each setting applies to are never typed here.
+  const settingId = (field) => 's-' + field.replace(/_/g, '-');
 
   function num(id, integer, min, max) {
     const v = $(id).value.trim();
@@ -297,20 +326,54 @@
     }
     return x;
   }
+
+  function renderSettings(desc) {
+    const main = $('settings-main'), adv = $('settings-advanced');
+    main.replaceChildren();
+    adv.replaceChildren();
+    for (const d of desc) {
+      const id = settingId(d.field);
+      const hint = el('span', { class: 'hint' }, 'default: ' + d.default);
+      // Advanced settings show what they apply to; the main ones say it on hover.
+      const applies = d.advanced ? el('span', { class: 'hint applies' }, 'applies to: ' + d.applies_to) : null;
+      let field;
+      if (d.kind === 'flag') {
+        field = el('div', { class: 'field', 'data-setting': d.field },
+          el('label', { class: 'choice', for: id }, el('input', { type: 'checkbox', id }), el('span', null, d.label)), applies);
+      } else {
+        let control;
+        if (d.kind === 'choice') {
+          control = el('select', { id }, ...d.choices.map((c) => el('option', { value: c.value }, c.label)));
+        } else if (d.kind === 'integer' || d.kind === 'number') {
+          control = el('input', { type: 'number', id, min: d.min, max: d.max, step: d.kind === 'integer' ? '1' : 'any' });
+        } else {
+          control = el('input', { type: 'text', id, autocomplete: 'off' });
+        }
+        field = el('div', { class: 'field', 'data-setting': d.field, title: d.advanced ? null : 'applies to: ' + d.applies_to }, el('label', { for: id }, d.label + ' ', hint), control, applies);
+      }
+      (d.advanced ? adv : main).append(field);
+      if (d.input) $(id).addEventListener('input', onInputSetting);
+    }
+  }
+
   const txt = (id) => $(id).value.trim() || undefined;
 
   // readSettings returns the settings object with exactly the JSON names of
   // the command-line tool's settings (schema v1); unset fields are omitted.
   function readSettings(inputOnly) {
     const s = {};
-    const put = (k, v) => { if (v !== undefined && v !== '' && v !== 0 && v !== false) s[k] = v; };
-    put('from', txt('s-from'));
-    put('to', txt('s-to'));
-    put('transform', $('s-transform').value);
-    put('date_column', txt('s-datecol'));
-    put('date_format', $('s-dateformat').value);
-    put('gaps', $('s-gaps').value);
-    put('sheet', txt('s-sheet'));
+    if (state.long) s.long = state.long;
+    const put = (k, v) => { if (v !== undefined && v !== '' && v !== false && !(v === 0 && k !== 'lags' && k !== 'max_lags' && k !== 'bandwidth')) s[k] = v; };
+    const desc = (state.about && state.about.settings) || [];
+    for (const d of desc) {
+      if (inputOnly && !d.input) continue;
+      const id = settingId(d.field);
+      if (!$(id)) continue;
+      if (d.kind === 'flag') put(d.field, $(id).checked);
+      else if (d.kind === 'choice') put(d.field, $(id).value === '' ? undefined : (d.numeric ? Number($(id).value) : $(id).value));
+      else if (d.kind === 'integer' || d.kind === 'number') put(d.field, num(id, d.kind === 'integer', d.min, d.max));
+      else put(d.field, txt(id));
+    }
     if (inputOnly) return s;
     const cols = [...document.querySelectorAll('#preview input[data-col]')];
     if (cols.length && cols.some((c) => !c.checked)) {
@@ -323,29 +386,6 @@
       if (!tests.length) throw new EngineError('usage', 'Pick at least one test, or use the recommended set.');
       s.tests = tests;
     }
-    put('trend', $('s-trend').value);
-    const lags = num('s-lags', true, 0, 1000);
-    if (lags !== undefined) s.lags = lags;
-    put('lag_rule', $('s-lagrule').value);
-    const maxLags = num('s-maxlags', true, 0, 1000);
-    if (maxLags !== undefined) s.max_lags = maxLags;
-    const bw = num('s-bandwidth', false, 0);
-    if (bw !== undefined) s.bandwidth = bw;
-    put('kernel', $('s-kernel').value);
-    put('bandwidth_rule', $('s-bwrule').value);
-    put('level', $('s-level').value ? Number($('s-level').value) : undefined);
-    put('shift', $('s-shift').value);
-    put('trim', num('s-trim', false, 0.01, 0.49));
-    put('break_date', txt('s-breakdate'));
-    const wf = txt('s-win-from'), wt = txt('s-win-to');
-    if (wf || wt) {
-      if (!wf || !wt) throw new EngineError('usage', 'Give both ends of the crisis window.');
-      s.window = wf + ':' + wt;
-    }
-    put('sims', num('s-sims', true, 0, 10000000));
-    put('seed', num('s-seed', true, 0));
-    put('right_tail', $('s-righttail').checked);
-    put('max_breaks', num('s-maxbreaks', true, 1, 10));
     return s;
   }
 
@@ -365,7 +405,7 @@
   // ---------- running ----------
 
   function progressText(p) {
-    if (p.stage === 'simulation' && p.total) return `Simulating p-values: ${p.test} on ${p.series}, ${Math.floor(100 * p.done / p.total)}%`;
+    if (p.stage === 'simulation' && p.total) return `${p.series}, ${p.test}: replications ${p.done} of ${p.total}`;
     if (p.stage === 'test') return `Running ${p.test} on ${p.series}…`;
     if (p.stage === 'series' && p.total) return `${p.done} of ${p.total} series done`;
     return 'Working…';
@@ -389,16 +429,29 @@
     $('progress-text').textContent = 'Working…';
     status('Analysing…');
     const started = performance.now();
+    // One overall progress: series k of n, the test running, its
+    // replications, and the time left from the pace so far. The bar never
+    // goes back; within a series it moves with the simulation of the first
+    // simulated test and stops short of the series' end until it is done.
+    const picked = s.columns ? s.columns.length : (state.preview ? state.preview.series.length : 0);
+    const ov = { n: Math.max(1, picked), done: 0, within: 0, frac: 0 };
+    $('progress-text').textContent = `Series 1 of ${ov.n}…`;
     try {
       const doc = await engineCall('analyze', { name: state.name, bytes: state.bytes.slice(), settings: JSON.stringify(s) }, (p) => {
-        if (p.stage === 'simulation' && p.total) $('progress').value = Math.floor(100 * p.done / p.total);
-        else if (p.stage === 'series' && p.total) $('progress').value = Math.floor(100 * p.done / p.total);
-        $('progress-text').textContent = progressText(p);
+        if (p.stage === 'series') { ov.done++; ov.within = 0; ov.n = Math.max(ov.n, ov.done); }
+        else if (p.stage === 'simulation' && p.total) ov.within = Math.max(ov.within, Math.min(0.95, p.done / p.total));
+        ov.frac = Math.max(ov.frac, Math.min(1, (ov.done + ov.within) / ov.n));
+        $('progress').value = Math.floor(100 * ov.frac);
+        const secs = (performance.now() - started) / 1000;
+        const left = ov.frac > 0.02 && ov.frac < 1 ? ` · about ${Math.ceil(secs * (1 - ov.frac) / ov.frac)} s left` : '';
+        $('progress-text').textContent = `Series ${Math.min(ov.done + 1, ov.n)} of ${ov.n}` + (p.stage === 'series' ? '' : ': ' + progressText(p)) + left;
+        $('progress').dataset.overall = String(ov.frac);
       });
       state.lastDoc = doc;
       await renderFindings(doc);
       status(`Done in ${((performance.now() - started) / 1000).toFixed(1)} s.`);
-      $('findings-h').focus();
+      $('findings-h').focus({ preventScroll: true });
+      $('findings-h').scrollIntoView({ block: 'start' });
     } catch (err) {
       if (err.kind === 'cancelled') status('Cancelled. The engine was restarted; your data and settings are kept.');
       else status((err.kind === 'usage' ? 'Settings: ' : '') + err.message, true);
@@ -427,6 +480,7 @@
     'shift-dummies': 'model the breaks with shift dummies',
     'difference': 'take first differences',
     'log-difference': 'take differences of logarithms',
+    'second-difference': 'take second differences',
   };
 
   function testName(id) {
@@ -447,26 +501,26 @@
   function resultRows(r) {
     const cv = r.critical_values || {};
     const rows = [el('tr', null,
-      el('th', { scope: 'row' }, testName(r.test), el('span', { class: 'tag' }, r.test + (r.variant ? ' ' + r.variant : '')), el('span', { class: 'h0' }, 'H0: ' + r.null)),
-      el('td', { class: 'num' }, fmt(r.statistic)),
-      el('td', { class: 'num', title: r.p_value_method }, fmtP(r.p_value) + (r.p_value_sim !== undefined && r.p_value_sim !== null ? ` (sim. ${fmtP(r.p_value_sim)})` : '')),
-      el('td', { class: 'num' }, fmt(cv['0.01'])),
-      el('td', { class: 'num' }, fmt(cv['0.05'])),
-      el('td', { class: 'num' }, fmt(cv['0.10'])),
-      el('td', { class: 'num' }, r.lags + (r.lag_rule ? ' ' + r.lag_rule : '')),
-      el('td', null, breaksText(r.breaks)),
-      el('td', { class: 'decision' }, decisionText(r)))];
+      el('th', { scope: 'row', 'data-label': 'Test' }, testName(r.test), el('span', { class: 'tag' }, [r.test, r.trend, r.variant].filter(Boolean).join(' · ')), el('span', { class: 'h0' }, 'H0: ' + r.null)),
+      el('td', { class: 'num', 'data-label': 'Statistic' }, fmt(r.statistic)),
+      el('td', { class: 'num', title: r.p_value_method, 'data-label': 'p-value' }, fmtP(r.p_value) + (r.p_value_sim !== undefined && r.p_value_sim !== null ? ` (sim. ${fmtP(r.p_value_sim)})` : '')),
+      el('td', { class: 'num', 'data-label': '1%' }, fmt(cv['0.01'])),
+      el('td', { class: 'num', 'data-label': '5%' }, fmt(cv['0.05'])),
+      el('td', { class: 'num', 'data-label': '10%' }, fmt(cv['0.10'])),
+      el('td', { class: 'num', 'data-label': 'Lags' }, r.lags + (r.lag_rule ? ' ' + r.lag_rule : '')),
+      el('td', { 'data-label': 'Break dates' }, breaksText(r.breaks)),
+      el('td', { class: 'decision', 'data-label': 'Decision' }, decisionText(r)))];
     for (const c of [...(r.components || []), ...(r.break_tests || [])]) {
       const ccv = c.critical_values || {};
       rows.push(el('tr', { class: 'small' },
-        el('td', null, '↳ ' + c.name),
-        el('td', { class: 'num' }, fmt(c.statistic)),
-        el('td', { class: 'num' }, fmtP(c.p_value)),
-        el('td', { class: 'num' }, fmt(ccv['0.01'])),
-        el('td', { class: 'num' }, fmt(ccv['0.05'])),
-        el('td', { class: 'num' }, fmt(ccv['0.10'])),
-        el('td', null, ''), el('td', null, ''),
-        el('td', { class: 'decision' }, c.reject ? 'rejects' : 'does not reject')));
+        el('td', { 'data-label': 'Part' }, '↳ ' + c.name),
+        el('td', { class: 'num', 'data-label': 'Statistic' }, fmt(c.statistic)),
+        el('td', { class: 'num', 'data-label': 'p-value' }, fmtP(c.p_value)),
+        el('td', { class: 'num', 'data-label': '1%' }, fmt(ccv['0.01'])),
+        el('td', { class: 'num', 'data-label': '5%' }, fmt(ccv['0.05'])),
+        el('td', { class: 'num', 'data-label': '10%' }, fmt(ccv['0.10'])),
+        el('td', { class: 'empty' }, ''), el('td', { class: 'empty' }, ''),
+        el('td', { class: 'decision', 'data-label': 'Decision' }, c.reject ? 'rejects' : 'does not reject')));
     }
     return rows;
   }
@@ -476,25 +530,98 @@
     return (at ? at + ': ' : '') + n.message;
   }
 
+  const pct = (x) => (x === null || x === undefined || !isFinite(x)) ? '—' : (100 * x < 1 && x > 0 ? '<1%' : Math.round(100 * x) + '%');
+
+  // overviewRow is one series in the overview table: what the verdict says,
+  // in one line, with a link to the series' detail below.
+  function overviewRow(sr, i) {
+    const v = sr.verdict;
+    const cls = v ? v.class : '';
+    const link = el('a', { href: '#series-' + i, 'data-open': String(i) }, sr.name);
+    const rel = v && v.reliability;
+    let win = '—';
+    if (v && v.window) win = v.window.answer || (v.window.break_inside ? 'a break inside' : 'no break inside');
+    const tr = el('tr', { 'data-class': cls, 'data-row': String(i) },
+      el('th', { scope: 'row', 'data-label': 'Series' }, link),
+      el('td', { 'data-label': 'Verdict', class: v ? 'vclass v-' + cls : '' }, v ? (classWords[cls] || cls) : (sr.errors && sr.errors.length ? 'failed' : 'no verdict (tests picked)')),
+      el('td', { 'data-label': 'Order' }, v && v.order !== null && v.order !== undefined ? 'I(' + v.order + ')' : '—'),
+      el('td', { 'data-label': 'What to do', title: v ? (transformWords[v.transform] || v.transform) : null }, v ? v.transform : '—'),
+      el('td', { 'data-label': 'Breaks', class: 'wrap' }, ...(v && v.breaks && v.breaks.length ? v.breaks.map((b) => el('span', { class: 'date' }, b.date || ('obs. ' + b.index))) : ['—'])),
+      el('td', { 'data-label': 'Window' }, win),
+      el('td', { class: 'num', 'data-label': 'Error rate', title: rel ? rel.headline : '' }, rel ? pct(rel.wrong_rate) + (rel.t ? ` at T=${rel.t}` : '') : '—'));
+    // Empty cells are left out of the phone layout.
+    for (const c of tr.querySelectorAll('td')) if (c.textContent === '—') c.classList.add('none');
+    return tr;
+  }
+
+  function applyFilter() {
+    const want = $('class-filter') ? $('class-filter').value : '';
+    for (const tr of document.querySelectorAll('#overview tbody tr')) tr.hidden = !!want && tr.dataset.class !== want;
+    for (const a of document.querySelectorAll('#results article[data-class]')) a.hidden = !!want && a.dataset.class !== want;
+  }
+
+  async function loadPlots(card, i) {
+    if (card.dataset.plots) return;
+    card.dataset.plots = 'loading';
+    try {
+      const plots = await engineCall('plots', { index: i });
+      const figs = card.querySelector('.plots');
+      for (const p of plots) {
+        const f = el('figure', null);
+        const holder = el('div', null);
+        // The SVG text is produced by our own Go code, which escapes every label.
+        holder.innerHTML = p.svg;
+        f.append(holder, el('figcaption', null, p.title));
+        figs.append(f);
+      }
+      card.dataset.plots = 'done';
+    } catch (err) {
+      delete card.dataset.plots;
+    }
+  }
+
   async function renderFindings(doc) {
     $('findings-h').hidden = false;
     $('findings-h').tabIndex = -1;
     $('exports').hidden = false;
     const out = $('results');
     out.replaceChildren();
+    const n = doc.series.length;
+    const collapsed = n > 3;
+    // The overview first: one row per series.
+    const classes = [...new Set(doc.series.map((sr) => sr.verdict && sr.verdict.class).filter(Boolean))];
+    const filter = el('select', { id: 'class-filter' }, el('option', { value: '' }, `every class (${n})`),
+      ...classes.map((c) => el('option', { value: c }, `${classWords[c] || c} (${doc.series.filter((sr) => sr.verdict && sr.verdict.class === c).length})`)));
+    filter.addEventListener('change', applyFilter);
+    const expandAll = el('button', { type: 'button', id: 'expand-all' }, 'Open every detail');
+    const collapseAll = el('button', { type: 'button', id: 'collapse-all' }, 'Close every detail');
+    expandAll.addEventListener('click', () => { for (const d of out.querySelectorAll('article details')) d.open = true; });
+    collapseAll.addEventListener('click', () => { for (const d of out.querySelectorAll('article details')) d.open = false; });
+    out.append(el('div', { class: 'card', id: 'overview' },
+      el('div', { class: 'overview-head' }, el('h3', null, 'Overview'),
+        el('label', { for: 'class-filter', class: 'small' }, 'Show ', filter),
+        n > 1 ? expandAll : null, n > 1 ? collapseAll : null),
+      el('table', { class: 'stack overview' },
+        el('caption', { class: 'sr-only' }, 'One row per series'),
+        el('thead', null, el('tr', null, ...['Series', 'Verdict', 'Order', 'What to do', 'Breaks', 'Window', 'Error rate'].map((h) => el('th', { scope: 'col' }, h)))),
+        el('tbody', null, ...doc.series.map(overviewRow)))));
     // Notes on the input: everything the reader decided or changed.
     const srcNotes = (doc.source && doc.source.notes) || [];
-    const sourceNotes = new Set(srcNotes.map((n) => n.kind + '\u0000' + n.message));
+    const sourceNotes = new Set(srcNotes.map((x) => x.kind + '\u0000' + x.message));
     if (srcNotes.length) {
-      out.append(el('div', { class: 'card notes' }, el('p', { class: 'small' }, el('strong', null, 'Notes on the input')),
-        el('ul', { class: 'tight small muted' }, ...srcNotes.map((n) => el('li', null, noteText(n))))));
+      out.append(el('details', { class: 'card notes' }, el('summary', { class: 'small' }, el('strong', null, `Notes on the input (${srcNotes.length})`)),
+        el('ul', { class: 'tight small muted' }, ...srcNotes.map((x) => el('li', null, noteText(x))))));
     }
-    for (let i = 0; i < doc.series.length; i++) {
+    const list = el('div', { class: 'series-list' + (collapsed ? ' many' : '') });
+    out.append(list);
+    for (let i = 0; i < n; i++) {
       const sr = doc.series[i];
-      const card = el('article', { class: 'card', 'aria-labelledby': 'series-h-' + i, 'data-series': sr.name });
-      const meta = [`${sr.n} observations`, sr.start ? `${sr.start} – ${sr.end}` : null, sr.frequency, sr.transform ? `transform: ${sr.transform}` : null].filter(Boolean).join(' · ');
-      card.append(el('h3', { id: 'series-h-' + i }, sr.name), el('p', { class: 'small muted' }, meta));
       const v = sr.verdict;
+      const card = el('article', { class: 'card series', id: 'series-' + i, 'aria-labelledby': 'series-h-' + i, 'data-series': sr.name, 'data-class': v ? v.class : '' });
+      const det = el('details', { open: collapsed ? null : true });
+      const meta = [`${sr.n} observations`, sr.start ? `${sr.start} – ${sr.end}` : null, sr.frequency, sr.transform ? `transform: ${sr.transform}` : null].filter(Boolean).join(' · ');
+      det.append(el('summary', null, el('h3', { id: 'series-h-' + i }, sr.name),
+        v ? el('span', { class: 'tag' }, classWords[v.class] || v.class) : null), el('p', { class: 'small muted' }, meta));
       if (v) {
         const box = el('div', { class: 'verdict v-' + v.class, 'data-verdict': v.class },
           el('div', { class: 'class' }, classWords[v.class] || v.class,
@@ -503,52 +630,45 @@
           el('p', null, v.explanation),
           el('p', { class: 'small' }, el('strong', null, 'What to do: '), transformWords[v.transform] || v.transform,
             v.breaks && v.breaks.length ? '. Breaks: ' + breaksText(v.breaks) : ''));
+        if (v.reliability && v.reliability.headline) box.append(el('p', { class: 'small' }, v.reliability.headline));
         if (v.window) {
           box.append(el('p', { class: 'small' }, `Suspected window ${v.window.from} – ${v.window.to}: ` +
-            (v.window.break_inside ? 'a break found falls inside it.' : 'no break found falls inside it.')));
+            (v.window.answer || (v.window.break_inside ? 'a break found falls inside it.' : 'no break found falls inside it.'))));
         }
         if (v.supporting && v.supporting.length) box.append(el('p', { class: 'small' }, el('strong', null, 'Evidence for: ')), el('ul', { class: 'tight small' }, ...v.supporting.map((x) => el('li', null, x))));
         if (v.against && v.against.length) box.append(el('p', { class: 'small' }, el('strong', null, 'Evidence against: ')), el('ul', { class: 'tight small' }, ...v.against.map((x) => el('li', null, x))));
-        card.append(box);
+        det.append(box);
       }
       if (sr.errors && sr.errors.length) {
-        card.append(el('ul', { class: 'tight errors small' }, ...sr.errors.map((e) => el('li', null, (e.test ? e.test + ': ' : '') + e.message))));
+        det.append(el('ul', { class: 'tight errors small' }, ...sr.errors.map((e) => el('li', null, (e.test ? e.test + ': ' : '') + e.message))));
       }
       if (sr.warnings && sr.warnings.length) {
-        card.append(el('ul', { class: 'tight small muted' }, ...sr.warnings.map((w) => el('li', null, w))));
+        det.append(el('ul', { class: 'tight small muted' }, ...sr.warnings.map((w) => el('li', null, w))));
       }
       // The reader's notes on this series that the input notes above do not already hold.
-      const own = (sr.notes || []).filter((n) => !sourceNotes.has(n.kind + '\u0000' + n.message));
+      const own = (sr.notes || []).filter((x) => !sourceNotes.has(x.kind + '\u0000' + x.message));
       if (own.length) {
-        card.append(el('ul', { class: 'tight small muted notes' }, ...own.map((n) => el('li', null, noteText(n)))));
+        det.append(el('ul', { class: 'tight small muted notes' }, ...own.map((x) => el('li', null, noteText(x)))));
       }
       if (sr.results.length) {
-        card.append(el('div', { class: 'table-wrap' }, el('table', { class: 'results' },
+        det.append(el('div', { class: 'table-wrap' }, el('table', { class: 'results stack' },
           el('caption', { class: 'sr-only' }, 'Test results for ' + sr.name),
           el('thead', null, el('tr', null, ...['Test', 'Statistic', 'p-value', '1%', '5%', '10%', 'Lags', 'Break dates', 'Decision'].map((h) => el('th', { scope: 'col' }, h)))),
           el('tbody', null, ...sr.results.flatMap(resultRows)))));
       }
-      const figs = el('div', { class: 'plots' });
-      card.append(figs);
-      out.append(card);
+      det.append(el('div', { class: 'plots' }));
+      card.append(det);
+      list.append(card);
+      // Plots are drawn by the engine (report.SeriesSVG, PathSVG, ACFSVG) when the detail is first opened.
+      det.addEventListener('toggle', () => { if (det.open) loadPlots(card, i); });
     }
-    // Plots are drawn by the engine (report.SeriesSVG, PathSVG, ACFSVG) after the text is shown.
-    const cards = out.querySelectorAll('article');
-    for (let i = 0; i < cards.length; i++) {
-      try {
-        const plots = await engineCall('plots', { index: i });
-        const figs = cards[i].querySelector('.plots');
-        for (const p of plots) {
-          const f = el('figure', null);
-          const holder = el('div', null);
-          // The SVG text is produced by our own Go code, which escapes every label.
-          holder.innerHTML = p.svg;
-          f.append(holder, el('figcaption', null, p.title));
-          figs.append(f);
-        }
-      } catch (err) {
-        if (err.kind === 'cancelled') return;
-      }
+    for (const a of out.querySelectorAll('a[data-open]')) {
+      a.addEventListener('click', () => { const d = $('series-' + a.dataset.open).querySelector('details'); d.open = true; });
+    }
+    applyFilter();
+    if (!collapsed) {
+      const cards = out.querySelectorAll('article');
+      for (let i = 0; i < cards.length; i++) await loadPlots(cards[i], i);
     }
   }
 
@@ -574,6 +694,7 @@
     try {
       state.about = await engineCall('about', {});
       renderTests(state.about);
+      renderSettings(state.about.settings || []);
     } catch (err) { /* the test list is optional */ }
     status(state.bytes ? 'Ready.' : 'Ready. Start with your data, or try the demo data.');
     $('run').disabled = !state.bytes;

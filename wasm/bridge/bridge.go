@@ -322,6 +322,9 @@ type About struct {
 	DemoName        string     `json:"demo_name"`
 	DemoDescription string     `json:"demo_description"`
 	Caution         string     `json:"caution"`
+	// Settings describes every setting the page offers (labels, defaults,
+	// choices, the tests each applies to): battery.SettingsDescription.
+	Settings []battery.SettingInfo `json:"settings"`
 }
 
 // AboutInfo returns the engine's version, its tests and the demo data's
@@ -332,7 +335,7 @@ func AboutInfo() string {
 			Version: battery.Version, Schema: schema.ID,
 			VerdictTests: decide.Tests, Transforms: battery.Transforms,
 			DemoName: battery.DemoName, DemoDescription: battery.DemoDescription, Caution: schema.Caution,
-			Tests: []TestInfo{},
+			Tests: []TestInfo{}, Settings: battery.SettingsDescription(),
 		}
 		for _, id := range core.IDs() {
 			info, err := core.Lookup(id)

@@ -10,6 +10,7 @@ import (
 	"context"
 	"encoding/json"
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -347,6 +348,9 @@ func TestAboutAndDemo(t *testing.T) {
 			t.Errorf("test %s lacks a name or null", ti.ID)
 		}
 	}
+	if len(a.Settings) != len(battery.SettingsDescription()) || len(a.Settings) == 0 {
+		t.Errorf("about: %d settings described", len(a.Settings))
+	}
 	if verdict != len(decide.Tests) {
 		t.Errorf("%d tests flagged for the verdict, want %d", verdict, len(decide.Tests))
 	}
@@ -424,5 +428,34 @@ func BenchmarkBenchZA(b *testing.B) {
 		if _, _, err := BenchZA(1); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// TestInspectLong checks that a long table is detected and offered (not
+// assumed), and that with settings.long its preview lists one series per id.
+func TestInspectLong(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("region,quarter,sales\n")
+	for _, id := range []string{"north", "south", "west"} {
+		for y := 2001; y <= 2004; y++ {
+			for q := 1; q <= 4; q++ {
+				fmt.Fprintf(&b, "%s,%dQ%d,%d.5\n", id, y, q, (y*7+q*13+len(id))%50)
+			}
+		}
+	}
+	var p Preview
+	if err := json.Unmarshal(decode(t, Inspect("sales.csv", []byte(b.String()), "")).Result, &p); err != nil {
+		t.Fatal(err)
+	}
+	if p.LongDetected == nil || p.LongDetected.ID != "region" || p.LongDetected.Date != "quarter" || p.LongDetected.Value != "sales" || p.Long != nil {
+		t.Fatalf("long table not offered: %+v", p)
+	}
+	r := decode(t, Inspect("sales.csv", []byte(b.String()), `{"long":{"id":"region","date":"quarter","value":"sales"}}`))
+	p = Preview{}
+	if err := json.Unmarshal(r.Result, &p); err != nil {
+		t.Fatal(err)
+	}
+	if p.Long == nil || len(p.Series) != 3 || p.Series[1].Name != "south" || p.Series[1].N != 16 || p.Frequency != "quarterly" {
+		t.Errorf("long preview: %+v", p)
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"math"
 	"strings"
 
+	"github.com/rootshift/rootshift/breaks/battery"
 	"github.com/rootshift/rootshift/core/dataset"
 	"github.com/rootshift/rootshift/core/schema"
 )
@@ -27,6 +28,13 @@ type Preview struct {
 	Selected []SelectedPreview `json:"selected"`
 	// SelectError concerns every series (a bad sample range); "" if none.
 	SelectError string `json:"select_error,omitempty"`
+	// Long is the long-table reading in use (settings.long), nil for a
+	// wide table.
+	Long *schema.LongColumns `json:"long,omitempty"`
+	// LongDetected is set when the data look like a long table (one row
+	// per id, date and value; battery.DetectLong) and are not read as one:
+	// the page offers that reading for the user to confirm.
+	LongDetected *schema.LongColumns `json:"long_detected,omitempty"`
 }
 
 // ColumnPreview summarises one numeric column of the file.
@@ -61,12 +69,65 @@ func Inspect(name string, data []byte, settings string) string {
 		if name == "" {
 			name = "pasted"
 		}
+		if st.Long != nil {
+			return longPreview(name, data, st)
+		}
+		detected := battery.DetectLong(name, data, st)
 		t, err := readTable(name, data, st)
 		if err != nil {
+			if detected != nil {
+				// The wide reading fails; say why and offer the long one.
+				return &Preview{Name: name, Warnings: []string{}, Series: []ColumnPreview{}, Selected: []SelectedPreview{},
+					SelectError: err.Error(), LongDetected: detected}, nil
+			}
 			return nil, err
 		}
-		return preview(t, st), nil
+		p := preview(t, st)
+		p.LongDetected = detected
+		return p, nil
 	})
+}
+
+// longPreview is the preview of a long table: one entry per id, each with
+// its own dates.
+func longPreview(name string, data []byte, st schema.Settings) (*Preview, error) {
+	tables, failed, err := battery.ReadLong(name, data, st)
+	if err != nil {
+		return nil, err
+	}
+	one := st
+	one.Columns = nil
+	p := &Preview{Name: name, Warnings: []string{}, Series: []ColumnPreview{}, Selected: []SelectedPreview{}, Long: st.Long}
+	seen := map[string]bool{}
+	for _, t := range tables {
+		q := preview(t, one)
+		if p.DateColumn == "" {
+			p.DateColumn, p.Frequency, p.Delimiter, p.DecimalComma = q.DateColumn, q.Frequency, q.Delimiter, q.DecimalComma
+		}
+		p.Rows += q.Rows
+		if q.FirstDate != "" && (p.FirstDate == "" || q.FirstDate < p.FirstDate) {
+			p.FirstDate = q.FirstDate
+		}
+		if q.LastDate > p.LastDate {
+			p.LastDate = q.LastDate
+		}
+		for _, w := range q.Warnings {
+			if !seen[w] {
+				seen[w] = true
+				p.Warnings = append(p.Warnings, w)
+			}
+		}
+		if q.SelectError != "" && p.SelectError == "" {
+			p.SelectError = q.SelectError
+		}
+		p.Series = append(p.Series, q.Series...)
+		p.Selected = append(p.Selected, q.Selected...)
+	}
+	for _, f := range failed {
+		p.Series = append(p.Series, ColumnPreview{Name: f.ID, Head: []*float64{}})
+		p.Selected = append(p.Selected, SelectedPreview{Name: f.ID, Error: f.Err.Error()})
+	}
+	return p, nil
 }
 
 // readTable reads data the way battery.AnalyzeText does.

@@ -78,14 +78,14 @@ func main() {
 	out := flag.String("o", "disttables_gen.go", "output file")
 	flag.Parse()
 	specs := []spec{
-		{"tau_nc", dfRep(core.TrendNone, false)},
-		{"tau_c", dfRep(core.TrendConstant, false)},
-		{"tau_ct", dfRep(core.TrendLinear, false)},
-		{"za_nc", dfRep(core.TrendNone, true)},
-		{"za_c", dfRep(core.TrendConstant, true)},
-		{"za_ct", dfRep(core.TrendLinear, true)},
-		{"kpss_mu", kpssRep(core.TrendConstant)},
-		{"kpss_tau", kpssRep(core.TrendLinear)},
+		{"df-t/none", dfRep(core.TrendNone, false)},
+		{"df-t/constant", dfRep(core.TrendConstant, false)},
+		{"df-t/linear", dfRep(core.TrendLinear, false)},
+		{"df-bias/none", dfRep(core.TrendNone, true)},
+		{"df-bias/constant", dfRep(core.TrendConstant, true)},
+		{"df-bias/linear", dfRep(core.TrendLinear, true)},
+		{"kpss/constant", kpssRep(core.TrendConstant)},
+		{"kpss/linear", kpssRep(core.TrendLinear)},
 	}
 	ps := probs()
 	var b bytes.Buffer
