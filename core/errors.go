@@ -54,3 +54,15 @@ func CheckFinite(test string, y []float64) error {
 }
 
 const maxFloat = 1.7976931348623157e308
+
+// ErrExplosiveFit is wrapped by the explosive-root tests when a window
+// regression fits exactly with an explosive coefficient: the series is, up
+// to rounding, a deterministic explosive path. It reads as ErrNoEstimate
+// (errors.Is(err, ErrNoEstimate) is true) and lets a caller tell this case,
+// which is evidence of an explosive root, from other failures.
+var ErrExplosiveFit error = explosiveFit{}
+
+type explosiveFit struct{}
+
+func (explosiveFit) Error() string { return ErrNoEstimate.Error() }
+func (explosiveFit) Unwrap() error { return ErrNoEstimate }

@@ -384,7 +384,7 @@ func (g *explEngine) exactErr(id string) error {
 	}
 	return &Error{Test: id, Err: fmt.Errorf("%w: the regression fits the data exactly in %d window(s) with an explosive coefficient "+
 		"(first: observations %d-%d; SSR <= %g x the sum of squares of Δy): the t-ratio there is +Inf, so the supremum is not a meaningful statistic "+
-		"(the series is, up to rounding, a deterministic explosive path)", ErrNoEstimate, g.exactUp, g.exactS, g.exactE, explExactTol)}
+		"(the series is, up to rounding, a deterministic explosive path)", ErrExplosiveFit, g.exactUp, g.exactS, g.exactE, explExactTol)}
 }
 
 // scan computes the forward sequence fwd[e-w] = ADF(1, e) and, when full,

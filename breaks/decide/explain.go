@@ -45,6 +45,10 @@ func (w *work) explosiveVerdict(v *schema.Verdict, ex *explosiveOut) {
 		}
 		eps = " (dated episodes: " + strings.Join(parts, "; ") + ")"
 	}
+	if ex.sadf == nil {
+		v.Explanation = fmt.Sprintf("Explosive%s: the recursive regressions of SADF fit the series exactly with an explosive coefficient, so up to rounding it is a deterministic explosive path (the explosive root swamps the noise). No differencing removes an explosive root; model it directly.", w.onScale())
+		return
+	}
 	v.Explanation = fmt.Sprintf("Explosive%s: SADF rejects the unit root in favour of an explosive root, and the rejection survives the wild bootstrap under an integrated null with the series' own drift path and volatility (p = %s)%s. No differencing removes an explosive root; model the episode itself and treat the other tests with caution.",
 		w.onScale(), pText(deref(ex.stage.PValue)), eps)
 	if ex.sadf != nil {

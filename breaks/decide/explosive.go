@@ -26,6 +26,7 @@ package decide
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
 
@@ -101,6 +102,17 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 	res, err := w.run(ctx, "sadf", w.z, cfg)
 	if err != nil {
 		return nil, err
+	}
+	if res == nil && errors.Is(w.lastErr, core.ErrExplosiveFit) {
+		// Window regressions fit exactly with an explosive coefficient: the
+		// series is, up to rounding, a deterministic explosive path (a large
+		// explosive root swamps the noise). That is the clearest evidence
+		// of an explosive root there is; no bootstrap can add to it.
+		w.errs = w.errs[:len(w.errs)-1]
+		out.explosive = true
+		out.stage.Decision = "explosive"
+		out.stage.Evidence = append(out.stage.Evidence, "the SADF window regressions fit exactly with an explosive coefficient: up to rounding the series is a deterministic explosive path")
+		return out, nil
 	}
 	if res == nil || res.Statistic == nil {
 		out.stage.Decision = "not computed"

@@ -93,6 +93,7 @@ type work struct {
 	seed    uint64
 	results []*schema.Result
 	errs    []schema.Error
+	lastErr error // the error of the last test that failed in run
 }
 
 // Run applies the procedure to one series. The error is non-nil only for
@@ -299,6 +300,7 @@ func (w *work) run(ctx context.Context, id string, y []float64, cfg *core.Config
 			return nil, fmt.Errorf("%w: %v", core.ErrCancelled, ctx.Err())
 		}
 		w.errs = append(w.errs, schema.Error{Test: id, Message: rerr.Error()})
+		w.lastErr = rerr
 		return nil, nil
 	}
 	w.results = append(w.results, r)
