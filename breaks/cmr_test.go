@@ -60,10 +60,10 @@ func BenchmarkADFBrute(b *testing.B) {
 	for _, c := range []struct {
 		id    string
 		shift core.Shift
-	}{{"lp", core.ShiftLevel}, {"lp", core.ShiftBoth}, {"cmrio1", core.ShiftLevel}, {"cmrao1", core.ShiftLevel}, {"cmrio2", core.ShiftLevel}, {"cmrao2", core.ShiftLevel}} {
-		cfg := &core.Config{Shift: c.shift}
+	}{{"lp", core.ShiftLevel}, {"lp", core.ShiftBoth}, {"meanshift/innovational-1", core.ShiftLevel}, {"meanshift/additive-1", core.ShiftLevel}, {"meanshift/innovational-2", core.ShiftLevel}, {"meanshift/additive-2", core.ShiftLevel}} {
+		id, cfg := msCase(c.id, &core.Config{Shift: c.shift})
 		b.Run("T="+lmItoa(T)+"/"+c.id+"/"+c.shift.String(), func(b *testing.B) {
-			a, _ := adfTestOf(c.id, cfg)
+			a, _ := adfTestOf(id, cfg)
 			spec, lo, hi, gap, err := adfPrepare(a, y, cfg)
 			if err != nil {
 				b.Fatal(err)

@@ -105,7 +105,7 @@ func TestLMEngineVsScan(t *testing.T) {
 	}
 }
 
-// TestADFEngineTrend compares lp and cmr* with the QR refit on trending
+// TestADFEngineTrend compares lp and meanshift with the QR refit on trending
 // series at the 1e6 scale, at every pair of a coarse grid; the AO form's
 // deleted dummy rows also with its dummies carried as columns.
 func TestADFEngineTrend(t *testing.T) {
@@ -117,13 +117,13 @@ func TestADFEngineTrend(t *testing.T) {
 	}{
 		{"lp", core.ShiftLevel, 160, lmLagSpec{core.LagTSig, 8}},
 		{"lp", core.ShiftBoth, 160, lmLagSpec{core.LagBIC, 5}},
-		{"cmrio1", core.ShiftLevel, 300, lmLagSpec{core.LagTSig, 8}},
-		{"cmrao1", core.ShiftLevel, 300, lmLagSpec{core.LagTSig, 8}},
-		{"cmrio2", core.ShiftLevel, 160, lmLagSpec{core.LagFixed, 4}},
-		{"cmrao2", core.ShiftLevel, 160, lmLagSpec{core.LagTSig, 8}},
+		{"meanshift/innovational-1", core.ShiftLevel, 300, lmLagSpec{core.LagTSig, 8}},
+		{"meanshift/additive-1", core.ShiftLevel, 300, lmLagSpec{core.LagTSig, 8}},
+		{"meanshift/innovational-2", core.ShiftLevel, 160, lmLagSpec{core.LagFixed, 4}},
+		{"meanshift/additive-2", core.ShiftLevel, 160, lmLagSpec{core.LagTSig, 8}},
 	} {
 		t.Run(fmt.Sprintf("%s/%s/%v", c.id, c.shift, c.spec), func(t *testing.T) {
-			a, err := adfTestOf(c.id, &core.Config{Shift: c.shift})
+			a, err := adfTestOf(msCase(c.id, &core.Config{Shift: c.shift}))
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -193,8 +193,8 @@ func TestSearchLoopsNoAlloc(t *testing.T) {
 			t.Errorf("LM %+v: %v allocations per search", m, a)
 		}
 	}
-	for _, id := range []string{"lp", "cmrio1", "cmrao1", "cmrio2", "cmrao2"} {
-		a, _ := adfTestOf(id, &core.Config{})
+	for _, id := range []string{"lp", "meanshift/innovational-1", "meanshift/additive-1", "meanshift/innovational-2", "meanshift/additive-2"} {
+		a, _ := adfTestOf(msCase(id, &core.Config{Shift: core.ShiftLevel}))
 		var w adfWork
 		w.setup(y, spec.k)
 		gap := lmMinGap
