@@ -68,7 +68,7 @@ var ratesTable = []RateTable{
 		{Key: "ts-slows", Counts: [7]int{0, 0, 481, 19, 0, 0, 0}, LogDiff: 0, Failed: 0},
 		{Key: "ts-turns", Counts: [7]int{0, 0, 439, 61, 0, 0, 0}, LogDiff: 0, Failed: 0},
 		{Key: "explosive-1.02", Counts: [7]int{0, 0, 0, 1, 0, 499, 0}, LogDiff: 0, Failed: 0},
-		{Key: "explosive-1.05", Counts: [7]int{0, 0, 0, 453, 0, 47, 0}, LogDiff: 0, Failed: 0},
+		{Key: "explosive-1.05", Counts: [7]int{0, 0, 0, 6, 0, 494, 0}, LogDiff: 0, Failed: 0},
 		{Key: "bubble", Counts: [7]int{0, 0, 0, 0, 0, 500, 0}, LogDiff: 0, Failed: 0},
 	}},
 }
