@@ -90,6 +90,9 @@ func (w *work) stationaryVerdict(v *schema.Verdict, ur *unitRootOut, det *detOut
 		v.Class, v.Transform = ClassStationary, TransformNone
 		v.Explanation = fmt.Sprintf("Stationary%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p = %s, confirmed by the wild bootstrap), with no significant slope and no break. Model it in levels.", w.onScale(), lead, p)
 	}
+	if len(det.breaks) == 0 && ur.leadIdx >= 2 {
+		v.Explanation += " The rejection came from a test that allows a break, but Bai-Perron finds no break at this level: the shift, if any, is too small to date; check the plot before leaving it out of the model."
+	}
 	if ur.lead != nil {
 		v.Supporting = append(v.Supporting, describe(ur.lead))
 	}
