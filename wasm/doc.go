@@ -11,7 +11,7 @@
 // because a panic or an unconvertible value at the boundary would end the Go
 // program. The exports live on globalThis.rootshiftEngine:
 //
-//	analyze(name, bytes, settingsJSON, onProgress) -> JSON envelope (schema v1 document)
+//	analyze(name, bytes, settingsJSON, onProgress) -> JSON envelope (schema v2 document)
 //	inspect(name, bytes, settingsJSON)             -> JSON envelope (preview)
 //	export(format)                                 -> JSON envelope (report text)
 //	plots(seriesIndex)                             -> JSON envelope (SVG drawings)

@@ -8,7 +8,7 @@
 //
 // # Output
 //
-// One JSON Lines record per series: a schema v1 document ("schema",
+// One JSON Lines record per series: a schema v2 document ("schema",
 // "version", "settings", "source", "series", "caution") holding exactly one
 // series — the same fields `rootshift test --json` writes, for one series.
 // The series id used for sharding and in the side files is "SOURCE:NAME"

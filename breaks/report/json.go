@@ -9,7 +9,7 @@ import (
 )
 
 // WriteJSON writes doc as exactly json.MarshalIndent(doc, "", "  ") followed
-// by a newline: the v1 schema document, stable for diffs and golden files;
+// by a newline: the v2 schema document, stable for diffs and golden files;
 // the source is named by its base name and messages lose the folders of
 // file paths (exportSource, exportSeries), and characters that hide or reorder text are
 // written as \u escapes (JSONHidden). It streams: the series are encoded

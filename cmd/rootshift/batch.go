@@ -23,7 +23,7 @@ const batchUsage = `Usage: rootshift batch [options] INPUT...
        rootshift batch merge [--inputs-only] PART... -o FILE
 
 Runs the analysis on many series and writes one JSON Lines record per series
-(a schema v1 document holding that one series). INPUT is a file, a directory
+(a schema v2 document holding that one series). INPUT is a file, a directory
 (its .csv, .tsv, .txt, .xlsx, .jsonl files) or "-" for standard input.
 Named pipes, sockets and devices in a directory are skipped with a note, and
 so are files this tool wrote (recognised by their schema marker) and the

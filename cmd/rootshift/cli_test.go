@@ -58,7 +58,7 @@ func TestJSONContractOnDemo(t *testing.T) {
 			t.Errorf("document lacks %q", k)
 		}
 	}
-	if doc["schema"] != "rootshift.results/v1" {
+	if doc["schema"] != "rootshift.results/v2" {
 		t.Errorf("schema %v", doc["schema"])
 	}
 	series := doc["series"].([]any)

@@ -10,8 +10,8 @@ import (
 )
 
 func FuzzRecordHead(f *testing.F) {
-	f.Add([]byte(`{"schema":"rootshift.results/v1","version":"0.1.0","settings":{},"source":{"name":"a.csv","rows":3,"index":2},"series":[{"name":"x","n":3}],"caution":""}`))
-	f.Add([]byte(`{"schema":"rootshift.results/v1","source":{"name":"a"},"series":[{"n":1,"name":"y"}]}`))
+	f.Add([]byte(`{"schema":"rootshift.results/v2","version":"0.1.0","settings":{},"source":{"name":"a.csv","rows":3,"index":2},"series":[{"name":"x","n":3}],"caution":""}`))
+	f.Add([]byte(`{"schema":"rootshift.results/v2","source":{"name":"a"},"series":[{"n":1,"name":"y"}]}`))
 	f.Add([]byte(`{"series":[],"schema":1}`))
 	f.Add([]byte(`[1,2]`))
 	f.Fuzz(func(t *testing.T, raw []byte) {

@@ -50,7 +50,7 @@ func (e *env) test(args []string) int {
 	var o outputOpts
 	fs := newFlagSet("test", e.stdout, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).\nThe series are analysed in parallel; the output is in input order, the same for any -j.\n\nExit status: 0 every series tested, 1 some failed, 2 usage errors, 3 the output could not\nbe written, 4 nothing to process (empty input), 130 interrupted, 143 terminated (SIGTERM).")
 	settingsFlags(fs, &s)
-	fs.BoolVar(&o.json, "json", false, "print the JSON document (schema rootshift.results/v1); same as --format json")
+	fs.BoolVar(&o.json, "json", false, "print the JSON document (schema rootshift.results/v2); same as --format json")
 	fs.StringVar(&o.format, "format", "table", "output: "+strings.Join(report.Formats, ", "))
 	fs.StringVar(&o.out, "out", "", "write the output to this `file` instead of standard output")
 	fs.BoolVar(&o.quiet, "quiet", false, "no progress messages on standard error")

@@ -3,7 +3,7 @@
 // series per JSON Lines record) and the offline page (window.rootshift.analyze).
 //
 // The Go types here are the schema: a Document marshals to exactly the JSON
-// described in schema/v1.json (embedded as SchemaJSON) and in doc/schema.md.
+// described in schema/v2.json (embedded as SchemaJSON) and in doc/schema.md.
 //
 // # Conventions
 //

@@ -7,11 +7,11 @@ import (
 )
 
 // ID is the value of Document.Schema for this version of the schema.
-const ID = "rootshift.results/v1"
+const ID = "rootshift.results/v2"
 
-// SchemaJSON is the JSON Schema (draft 2020-12) of a Document.
+// SchemaJSON is the JSON Schema (draft 2020-12) of a Document (version 2).
 //
-//go:embed v1.json
+//go:embed v2.json
 var SchemaJSON []byte
 
 // Caution is the short warning that every report carries.

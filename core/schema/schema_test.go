@@ -1,4 +1,4 @@
-// Tests that the JSON Schema file (v1.json) and the Go types stay in step:
+// Tests that the JSON Schema file (v2.json) and the Go types stay in step:
 // every JSON field of every schema type is declared in the JSON Schema, and
 // every declared property exists in the Go types. Source: the project's own
 // contract (issue "Foundation"), no external reference.
@@ -26,7 +26,7 @@ func jsonFields(t reflect.Type) []string {
 func TestSchemaFileMatchesTypes(t *testing.T) {
 	var js map[string]any
 	if err := json.Unmarshal(SchemaJSON, &js); err != nil {
-		t.Fatalf("v1.json is not JSON: %v", err)
+		t.Fatalf("v2.json is not JSON: %v", err)
 	}
 	defs := js["$defs"].(map[string]any)
 	props := func(m map[string]any) map[string]any { return m["properties"].(map[string]any) }
@@ -52,7 +52,7 @@ func TestSchemaFileMatchesTypes(t *testing.T) {
 		fields := jsonFields(c.typ)
 		for _, f := range fields {
 			if _, ok := c.props[f]; !ok {
-				t.Errorf("%s: Go field %q is missing from v1.json", c.name, f)
+				t.Errorf("%s: Go field %q is missing from v2.json", c.name, f)
 			}
 		}
 		for p := range c.props {
@@ -61,7 +61,7 @@ func TestSchemaFileMatchesTypes(t *testing.T) {
 				found = found || f == p
 			}
 			if !found {
-				t.Errorf("%s: v1.json declares %q, which the Go type lacks", c.name, p)
+				t.Errorf("%s: v2.json declares %q, which the Go type lacks", c.name, p)
 			}
 		}
 	}

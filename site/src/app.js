@@ -359,7 +359,7 @@
   const txt = (id) => $(id).value.trim() || undefined;
 
   // readSettings returns the settings object with exactly the JSON names of
-  // the command-line tool's settings (schema v1); unset fields are omitted.
+  // the command-line tool's settings (schema v2); unset fields are omitted.
   function readSettings(inputOnly) {
     const s = {};
     if (state.long) s.long = state.long;

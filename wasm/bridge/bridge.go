@@ -120,7 +120,7 @@ func encodeError(kind, msg string) string {
 }
 
 // DecodeSettings decodes the JSON settings object (the "settings" object of
-// a schema v1 document). An empty text or "null" is the zero value (every
+// a schema v2 document). An empty text or "null" is the zero value (every
 // default). Unknown fields and wrong types are usage errors, and so is
 // anything battery.Validate rejects.
 func DecodeSettings(text string) (schema.Settings, error) {
@@ -157,7 +157,7 @@ func NewSession() *Session { return &Session{} }
 
 // Analyze parses data (named name; .xlsx by extension), runs
 // battery.AnalyzeText with the decoded settings and returns the envelope
-// whose result is the schema v1 document, byte for byte the text that
+// whose result is the schema v2 document, byte for byte the text that
 // report.WriteJSON writes (compacted). progress may be nil.
 func (s *Session) Analyze(ctx context.Context, name string, data []byte, settings string, progress func(battery.Progress)) string {
 	return Call(func() (any, error) {
