@@ -214,34 +214,34 @@ func reliabilityFrom(tab *RateTable, v *schema.Verdict, T int, source string) *s
 		at = fmt.Sprintf("At T = %d (the simulated length nearest this series' %d)", tab.T, T)
 	}
 	pct := func(x float64) string { return fmt.Sprintf("%.0f%%", 100*x) }
-	// WrongRate: the worst rate over processes of another direction, with
-	// the strongly negative moving-average process left out (it is named
-	// separately in the headline of a stationary verdict: no unit-root test
-	// controls it at these lengths).
-	wrong := 0.0
-	for _, r := range tab.Rows {
-		p, _ := ProcessByKey(r.Key)
-		if p.Truth != dir && dir != DirNone && r.Key != "rw-ma" {
-			wrong = max(wrong, r.Share(dir))
+	// WrongRate is the rate the headline leads with: the worst share of
+	// processes from the class the verdict is most often confused with that
+	// receive this verdict's direction: integrated processes for a
+	// stationary or explosive verdict (the strongly negative moving-average
+	// process left out of the stationary one: it is named separately),
+	// stationary processes for an integrated verdict.
+	setWrong := func(r schema.Rate, ok bool) {
+		if ok {
+			rel.WrongRate = schema.F(r.Rate)
 		}
-	}
-	if dir != DirNone {
-		rel.WrongRate = schema.F(round4(wrong))
 	}
 	switch dir {
 	case DirStationary:
-		bad, _ := worst(DirIntegrated, DirStationary, "rw-ma")
+		bad, ok := worst(DirIntegrated, DirStationary, "rw-ma")
+		setWrong(bad, ok)
 		ma, _ := find("rw-ma", DirStationary)
 		good, _ := find("ar-shift5", DirStationary)
 		rel.Rates = append(rel.Rates, bad, ma, good)
 		rel.Headline = fmt.Sprintf("%s this procedure calls an integrated series stationary in at most %s of simulated cases (worst: %s), but in %s when the errors have a strong negative moving-average part (theta = -0.8); it finds a stationary series around a 5-sigma level shift stationary in %s.", at, pct(bad.Rate), bad.Process, pct(ma.Rate), pct(good.Rate))
 	case DirIntegrated:
-		bad, _ := worst(DirStationary, DirIntegrated)
+		bad, ok := worst(DirStationary, DirIntegrated)
+		setWrong(bad, ok)
 		shift, _ := find("ar-shift5", DirIntegrated)
 		rel.Rates = append(rel.Rates, bad, shift)
 		rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in up to %s of simulated cases (worst: %s; %s for a stationary series around a 5-sigma level shift).", at, pct(bad.Rate), bad.Process, pct(shift.Rate))
 	case DirExplosive:
-		bad, _ := worst(DirIntegrated, DirExplosive)
+		bad, ok := worst(DirIntegrated, DirExplosive)
+		setWrong(bad, ok)
 		good, _ := find("explosive-1.02", DirExplosive)
 		rel.Rates = append(rel.Rates, bad, good)
 		rel.Headline = fmt.Sprintf("%s this procedure calls an integrated series explosive in at most %s of simulated cases (worst: %s), and finds an explosive AR(1) with root 1.02 in %s.", at, pct(bad.Rate), bad.Process, pct(good.Rate))
