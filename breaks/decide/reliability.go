@@ -239,6 +239,9 @@ func reliabilityFrom(tab *RateTable, v *schema.Verdict, T int, source string) *s
 		shift, _ := find("ar-shift5", DirIntegrated)
 		rel.Rates = append(rel.Rates, bad, shift)
 		rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in up to %s of simulated cases (worst: %s; %s for a stationary series around a 5-sigma level shift).", at, pct(bad.Rate), bad.Process, pct(shift.Rate))
+		if bad.Process == shift.Process {
+			rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in up to %s of simulated cases (worst: %s).", at, pct(bad.Rate), bad.Process)
+		}
 	case DirExplosive:
 		bad, ok := worst(DirIntegrated, DirExplosive)
 		setWrong(bad, ok)
