@@ -190,10 +190,7 @@ func (w *work) finish(ctx context.Context, v *schema.Verdict, win *window) (*Out
 		if err != nil {
 			return nil, err
 		}
-		v.Window = wc
-		if wc.Answer != "" {
-			v.Explanation += " " + wc.Answer
-		}
+		v.Window = wc // its answer is in the window, which every report shows beside the explanation
 	}
 	rel, err := w.reliability(ctx, v)
 	if err != nil {

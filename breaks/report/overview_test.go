@@ -44,7 +44,7 @@ func TestOverviewTable(t *testing.T) {
 		"stage 1, trend: trending (t-test on the trend term, statistic 6.2500, p<0.001)",
 		"stage 3, breaks: one break (bp sequential)",
 		"error rate: At T=60",
-		"Answer: yes: a break at 1997Q2",
+		"yes: a break at 1997Q2",
 		"context: gsadf finds",
 		"Caution: " + schema.Caution[:30],
 	} {

@@ -343,6 +343,10 @@ func transformWords(t string) string {
 		return "first difference"
 	case "log-difference":
 		return "difference of logs"
+	case "second-difference":
+		return "second difference"
+	case "seasonal-difference":
+		return "seasonal difference"
 	}
 	return t
 }
@@ -358,11 +362,16 @@ func verdictHeadline(v *schema.Verdict) string {
 
 // windowText describes the suspected-window check.
 func windowText(w *schema.WindowCheck) string {
+	if w.Answer != "" {
+		// The verdict's own answer names the restricted test, its
+		// simulated p-value and the dates.
+		return visible(w.Answer)
+	}
 	s := "suspected window " + w.From + ".." + w.To + ": "
 	if w.BreakInside {
-		s += "a break found falls inside it"
+		s += "the break-aware test restricted to it rejects a unit root"
 	} else {
-		s += "no break found falls inside it"
+		s += "the break-aware test restricted to it does not reject a unit root"
 	}
 	if w.Known != nil && w.Known.Statistic != nil {
 		s += "; known-break test " + w.Known.Test + " " + num(*w.Known.Statistic, "n/a") +
@@ -370,9 +379,6 @@ func windowText(w *schema.WindowCheck) string {
 	}
 	if w.Test != nil {
 		s += "; " + windowTestText(w.Test)
-	}
-	if w.Answer != "" {
-		s += ". Answer: " + visible(w.Answer)
 	}
 	return s
 }

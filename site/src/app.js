@@ -633,7 +633,7 @@
         if (v.reliability && v.reliability.headline) box.append(el('p', { class: 'small' }, v.reliability.headline));
         if (v.window) {
           box.append(el('p', { class: 'small' }, `Suspected window ${v.window.from} – ${v.window.to}: ` +
-            (v.window.answer || (v.window.break_inside ? 'a break found falls inside it.' : 'no break found falls inside it.'))));
+            (v.window.answer || (v.window.break_inside ? 'the break-aware test restricted to the window rejects a unit root.' : 'the break-aware test restricted to the window does not reject a unit root.'))));
         }
         if (v.supporting && v.supporting.length) box.append(el('p', { class: 'small' }, el('strong', null, 'Evidence for: ')), el('ul', { class: 'tight small' }, ...v.supporting.map((x) => el('li', null, x))));
         if (v.against && v.against.length) box.append(el('p', { class: 'small' }, el('strong', null, 'Evidence against: ')), el('ul', { class: 'tight small' }, ...v.against.map((x) => el('li', null, x))));
