@@ -131,21 +131,35 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 		return out, nil
 	}
 	mu, db := turningDrift(diff(w.z))
-	sd := newSADFDrift(T, k, nil)
-	obs, err := sd.stat(w.z)
-	peak := sd.argmax // the bootstrap below reuses sd
-	if err != nil {
-		out.stage.Decision = "not explosive"
-		out.stage.Evidence = append(out.stage.Evidence, "SADF with the null's drift breaks could not be computed ("+err.Error()+"); a rejection by the tabulated null alone is not trusted")
-		return out, nil
+	obs := stat
+	// The window end where the forward ADF sequence peaks (res.Sequence
+	// holds ADF(1, e) for every window end e).
+	peak, w0 := 0, T
+	if sq := res.Sequence; sq != nil {
+		best := math.Inf(-1)
+		for i, v := range sq.Values {
+			if v > best {
+				best, peak = v, sq.Index[i]
+			}
+		}
+		if len(sq.Index) > 0 {
+			w0 = sq.Index[0]
+		}
 	}
+	bcfg := *cfg
+	bcfg.NoPath, bcfg.Dates, bcfg.Sims, bcfg.Progress = true, nil, 0, nil
+	info, err := core.Lookup("sadf")
+	if err != nil {
+		return nil, err
+	}
+	sf := info.StatOf(T, &bcfg)
 	null, err := fitSieve(w.z, nullKmax(T), mu, db)
 	if err != nil {
 		out.stage.Decision = "not explosive"
 		out.stage.Evidence = append(out.stage.Evidence, "the I(1) null could not be fitted for the bootstrap ("+err.Error()+"); without it a rejection by the tabulated null is not trusted")
 		return out, nil
 	}
-	p, failed, err := bootstrapP(ctx, null, T, explosiveDraws, w.seed^0x5ad5, obs, sd.stat)
+	p, failed, err := bootstrapP(ctx, null, T, explosiveDraws, w.seed^0x5ad5, obs, sf)
 	if err != nil {
 		if ctx.Err() != nil {
 			return nil, err
@@ -165,7 +179,7 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 	// drift, not an explosive root (common practice, no source: the bubble
 	// tests' alternative is exuberant growth, Phillips, Wu & Yu 2011).
 	if e := peak; out.explosive && e >= 1 {
-		h := max(sd.w0/2, 3)
+		h := max(w0/2, 3)
 		rising := w.z[e-1] > w.z[max(e-1-h, 0)]
 		if !rising && e < T-h {
 			out.explosive = false
@@ -174,7 +188,7 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 			out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("the explosive-looking stretch ending at %s is an accelerating fall that reverses before the end of the sample: a downturn and recovery, not an explosive root", w.dateOf(e)))
 		}
 	}
-	ev := fmt.Sprintf("SADF = %.3f exceeds its tabulated %g critical value; with the null's drift changes in every window it is %.3f, wild bootstrap p = %s under an I(1) null with %s (%d draws", stat, alpha, obs, pText(p), w.driftWords(null), explosiveDraws)
+	ev := fmt.Sprintf("SADF = %.3f exceeds its tabulated %g critical value; wild bootstrap p = %s under an I(1) null with %s (%d draws", stat, alpha, pText(p), w.driftWords(null), explosiveDraws)
 	if failed > 0 {
 		ev += fmt.Sprintf(", %d failed", failed)
 	}
