@@ -10,11 +10,13 @@
 //     geometric, by the Box & Cox (1964) profile likelihood of the random
 //     walk with drift.
 //  2. null.go: the fitted I(1) null that every bootstrap below draws from:
-//     a drift path with up to two breaks (Bai & Perron 1998, BIC), the
-//     short-run dynamics of the unrestricted ADF regression (recolouring,
-//     Palm, Smeekes & Urbain 2008) and wild residuals (Rademacher weights,
-//     Cavaliere & Taylor 2008), so that changing drift, one-time jumps,
-//     autocorrelation and crisis volatility are part of the null.
+//     a drift path that may change (up to two breaks for the unit-root
+//     stage, one turn for the explosive stage), short-run dynamics that
+//     recolour the bootstrap errors (from an unrestricted regression, Palm,
+//     Smeekes & Urbain 2008, or a restricted sieve, Chang & Park 2003) and
+//     wild residuals (Rademacher weights, Cavaliere & Taylor 2008) at their
+//     own dates, so that changing drift, one-time jumps, autocorrelation and
+//     crisis volatility are part of the null.
 //  3. explosive.go: SADF (Phillips, Wu & Yu 2011) with lags, its p-value by
 //     the wild bootstrap under the fitted null (Harvey, Leybourne, Sollis &
 //     Taylor 2016), so a downturn and recovery is not a bubble.
@@ -58,7 +60,7 @@
 // JBES 10, 251-270. Bai, J. & Perron, P. (1998), Econometrica 66, 47-78.
 // Cavaliere, G. & Taylor, A.M.R. (2008), Econometric Theory 24, 43-71.
 // Palm, F.C., Smeekes, S. & Urbain, J.-P. (2008), J. Time Series Analysis 29,
-// 371-401. Harvey, D.I., Leybourne, S.J. & Taylor, A.M.R. (2009),
+// 371-401. Chang, Y. & Park, J.Y. (2003), J. Time Series Analysis 24, 379-400. Harvey, D.I., Leybourne, S.J. & Taylor, A.M.R. (2009),
 // Econometric Theory 25, 587-636; (2012), J. Econometrics 169, 188-195.
 // Phillips, P.C.B., Wu, Y. & Yu, J. (2011), International Economic Review
 // 52, 201-226. Harvey, D.I., Leybourne, S.J., Sollis, R. & Taylor, A.M.R.

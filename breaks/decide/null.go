@@ -4,18 +4,28 @@ package decide
 //
 // Under the null the series is integrated with a drift that may change:
 //
-//	Δy_t = μ_t + u_t,   u_t = Σ_{j=1..k} γ_j u_{t-j} + ε_t,
+//	Δy_t = μ_t + u_t,   u_t = Σ_{j=1..k} γ_j u_{t-j} + ε_t.
 //
-// where μ_t is piecewise constant with at most two breaks (a crisis can turn
-// growth into decline), chosen by BIC among 0, 1 and 2 breaks of the mean of
-// Δy with segments of at least 15% of the sample (Bai & Perron 1998, 2003;
-// BIC as in Yao 1988), γ_j are the coefficients on the lagged differences in
-// the unrestricted ADF regression with a constant and a trend, k chosen by
-// BIC, and ε_t are that regression's residuals. Taking the short-run
-// dynamics and residuals from the unrestricted regression, not from a model
-// fitted to Δy under the null, keeps the power of the bootstrap tests
-// against stationary alternatives (Palm, Smeekes & Urbain 2008, "residual-
-// based" sieve bootstrap; Paparoditis & Politis 2005). A bootstrap sample is
+// Two fits of it are used:
+//
+//   - fitNull (the unit-root stage): μ_t piecewise constant with at most two
+//     breaks (driftPath: BIC among 0, 1 and 2 breaks of the mean of Δy, 15%
+//     trimming; Bai & Perron 1998, 2003; BIC as in Yao 1988); γ_j the
+//     coefficients on the lagged differences in an unrestricted regression
+//     (the Zivot-Andrews level-and-slope regression at its break date, with
+//     a long MAIC lag order: unitroot.go, leadSpec), and ε_t the residuals
+//     under the null with those γ_j. Taking the short-run dynamics from the
+//     unrestricted regression, not from a model fitted to Δy under the null,
+//     keeps the power of the bootstrap tests against stationary alternatives
+//     (Palm, Smeekes & Urbain 2008, "residual-based" sieve bootstrap;
+//     Paparoditis & Politis 2005), while the residuals under the null keep
+//     what the alternative's break dummies would absorb (a one-time jump).
+//   - fitSieve (the explosive stage): μ_t with at most one turn
+//     (turningDrift), γ_j from an autoregression of Δy - μ_t (BIC), the
+//     restricted sieve of Chang & Park (2003), which carries the persistence
+//     of the differences themselves.
+//
+// A bootstrap sample is
 //
 //	y*_1 = y_1,  y*_t = y*_{t-1} + μ_t + u*_t,
 //	u*_t = Σ γ_j u*_{t-j} + w_t ε̂_t,  w_t = ±1 with probability 1/2,
@@ -55,11 +65,6 @@ type dynSpec struct {
 	k      int
 	trend  core.Trend
 	du, dt []int
-	// restricted takes the residuals under the null, with the unrestricted
-	// γ̂: ε̂_t = (Δy_t - μ_t) - Σ γ̂_j (Δy_{t-j} - μ_{t-j}), so that what the
-	// alternative's break dummies absorb (a one-time jump in a random walk)
-	// stays in the residuals and so in every bootstrap sample.
-	restricted bool
 }
 
 // fitSieve fits the I(1) null by the restricted sieve: an autoregression
@@ -239,17 +244,18 @@ func fitNull(y []float64, spec dynSpec, mu []float64, driftBreaks []int) (*nullM
 	n := T - 1
 	m.resid = make([]float64, n)
 	m.fitted = make([]bool, n)
-	res := f.Resid
-	if spec.restricted {
-		// index i of d = Δy at t = i+2; residuals exist for i >= k.
-		res = make([]float64, n-k)
-		for i := k; i < n; i++ {
-			e := y[i+1] - y[i] - mu[i]
-			for j := 1; j <= k; j++ {
-				e -= m.gamma[j-1] * (y[i+1-j] - y[i-j] - mu[i-j])
-			}
-			res[i-k] = e
+	// The residuals under the null, with the unrestricted γ̂:
+	// ε̂_t = (Δy_t - μ_t) - Σ γ̂_j (Δy_{t-j} - μ_{t-j}), so that what the
+	// alternative's break dummies absorb (a one-time jump in a random walk)
+	// stays in the residuals and so in every bootstrap sample. Index i of
+	// Δy is t = i+2; residuals exist for i >= k.
+	res := make([]float64, n-k)
+	for i := k; i < n; i++ {
+		e := y[i+1] - y[i] - mu[i]
+		for j := 1; j <= k; j++ {
+			e -= m.gamma[j-1] * (y[i+1-j] - y[i-j] - mu[i-j])
 		}
+		res[i-k] = e
 	}
 	mean := 0.0
 	for _, e := range res {

@@ -119,7 +119,7 @@ func TestBootstrapKeepsDatesAndIsReproducible(t *testing.T) {
 	y := make([]float64, 120)
 	p.Gen(y, rand.New(rand.NewPCG(4, 4)))
 	mu, db := driftPath(diff(y), 2, 0.15)
-	m, err := fitNull(y, dynSpec{k: 1, trend: 1, restricted: true}, mu, db)
+	m, err := fitNull(y, dynSpec{k: 1, trend: 1}, mu, db)
 	if err != nil {
 		t.Fatal(err)
 	}

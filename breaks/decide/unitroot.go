@@ -255,7 +255,7 @@ func pWords(p float64) string {
 // the unrestricted regression puts the persistence in ρ, not in the γ_j,
 // and the bootstrap keeps its power (Palm, Smeekes & Urbain 2008).
 func leadSpec(m member, r *schema.Result, kLong int) dynSpec {
-	s := dynSpec{k: max(r.Lags, kLong), trend: m.trend, restricted: true}
+	s := dynSpec{k: max(r.Lags, kLong), trend: m.trend}
 	if m.id == "za" && len(r.Breaks) > 0 {
 		tb := r.Breaks[0].Index
 		s.du = []int{tb}
