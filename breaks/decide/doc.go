@@ -60,7 +60,8 @@
 // JBES 10, 251-270. Bai, J. & Perron, P. (1998), Econometrica 66, 47-78.
 // Cavaliere, G. & Taylor, A.M.R. (2008), Econometric Theory 24, 43-71.
 // Palm, F.C., Smeekes, S. & Urbain, J.-P. (2008), J. Time Series Analysis 29,
-// 371-401. Chang, Y. & Park, J.Y. (2003), J. Time Series Analysis 24, 379-400. Harvey, D.I., Leybourne, S.J. & Taylor, A.M.R. (2009),
+// 371-401. Chang, Y. & Park, J.Y. (2003), J. Time Series Analysis 24,
+// 379-400. Harvey, D.I., Leybourne, S.J. & Taylor, A.M.R. (2009),
 // Econometric Theory 25, 587-636; (2012), J. Econometrics 169, 188-195.
 // Phillips, P.C.B., Wu, Y. & Yu, J. (2011), International Economic Review
 // 52, 201-226. Harvey, D.I., Leybourne, S.J., Sollis, R. & Taylor, A.M.R.
