@@ -65,6 +65,6 @@
 // Econometric Theory 25, 587-636; (2012), J. Econometrics 169, 188-195.
 // Phillips, P.C.B., Wu, Y. & Yu, J. (2011), International Economic Review
 // 52, 201-226. Harvey, D.I., Leybourne, S.J., Sollis, R. & Taylor, A.M.R.
-// (2016), J. Empirical Finance 38, 548-574. Page numbers of the last four
-// are from memory.
+// (2016), J. Empirical Finance 38, 548-574. Volume and page numbers are
+// from memory, not checked against the papers here.
 package decide
