@@ -422,28 +422,8 @@ func (e *rowGram) extend(g *lmGram, w, t0 int) {
 	g.b = g.b[:w]
 	e.xb = searchGrow(e.xb, w)
 	xb := e.xb
-	dep := e.dep
 	for r := t0; r < from; r++ {
-		q := int(e.slot[r]) - 1
-		rdr := e.rd[r*e.nd : (r+1)*e.nd]
-		for i, f := range e.fa[:w] {
-			var x float64
-			switch {
-			case f >= 2:
-				x = rdr[f-2]
-			case f == 0:
-				x = 1
-			default:
-				for _, t := range e.sm[i] {
-					x += t.w * e.atomAt(t.a, r)
-				}
-			}
-			if q >= 0 {
-				x += e.ev[q*e.nc+i]
-			}
-			xb[i] = x
-		}
-		yr := rdr[dep-2]
+		yr := e.rowValues(r, w, xb)
 		for i := 0; i < w; i++ {
 			xi := xb[i]
 			row := g.a[i*w : i*w+i+1]
