@@ -13,7 +13,8 @@ package decide
 //     trimming; Bai & Perron 1998, 2003; BIC as in Yao 1988); γ_j the
 //     coefficients on the lagged differences in an unrestricted regression
 //     (the Zivot-Andrews level-and-slope regression at its break date, with
-//     a long MAIC lag order: unitroot.go, leadSpec), and ε_t the residuals
+//     its order chosen by BIC, nullOrder, or in the long-lag branch the
+//     member's MAIC order: unitroot.go, leadSpec), and ε_t the residuals
 //     under the null with those γ_j. Taking the short-run dynamics from the
 //     unrestricted regression, not from a model fitted to Δy under the null,
 //     keeps the power of the bootstrap tests against stationary alternatives
@@ -271,6 +272,72 @@ func fitNull(y []float64, spec dynSpec, mu []float64, driftBreaks []int) (*nullM
 	m.mu, m.breaks = mu, driftBreaks
 	m.markJumps()
 	return m, nil
+}
+
+// nullOrder chooses the lag order of spec's unrestricted regression by BIC
+// (Schwarz 1978) among 0..kmax on the common sample t = kmax+2..T. The
+// bootstrap null recolours with the γ_j of that order: an order chosen by
+// the t-sig rule of the member itself keeps spurious lags (their sum of
+// about 0.3-0.5 on a random walk with a burst of volatility, our
+// simulation), whose recolouring makes the bootstrap samples look more
+// integrated than the data and the bootstrap over-reject.
+func nullOrder(y []float64, spec dynSpec, kmax int) int {
+	T := len(y)
+	start := kmax + 2
+	n0 := T - start + 1
+	if kmax <= 0 || n0 <= kmax+len(spec.du)+len(spec.dt)+8 {
+		return max(kmax, 0)
+	}
+	col := func(f func(t int) float64) []float64 {
+		c := make([]float64, n0)
+		for i := range c {
+			c[i] = f(start + i)
+		}
+		return c
+	}
+	var det [][]float64
+	if spec.trend != core.TrendNone {
+		det = append(det, col(func(int) float64 { return 1 }))
+	}
+	if spec.trend == core.TrendLinear {
+		det = append(det, col(func(t int) float64 { return float64(t) }))
+	}
+	for _, tb := range spec.du {
+		det = append(det, col(func(t int) float64 {
+			if t > tb {
+				return 1
+			}
+			return 0
+		}))
+	}
+	for _, tb := range spec.dt {
+		det = append(det, col(func(t int) float64 {
+			if t > tb {
+				return float64(t - tb)
+			}
+			return 0
+		}))
+	}
+	lev := col(func(t int) float64 { return y[t-2] })
+	lags := make([][]float64, kmax)
+	for j := 1; j <= kmax; j++ {
+		lags[j-1] = col(func(t int) float64 { return y[t-1-j] - y[t-2-j] })
+	}
+	dep := col(func(t int) float64 { return y[t-1] - y[t-2] })
+	var ls core.LS
+	best, bestBIC := kmax, math.Inf(1)
+	for k := 0; k <= kmax; k++ {
+		cols := append(append([][]float64{lev}, lags[:k]...), det...)
+		f, err := ls.Fit(cols, dep)
+		if err != nil || !(f.SSR > 0) {
+			continue
+		}
+		n := float64(n0)
+		if b := math.Log(f.SSR/n) + float64(len(cols))*math.Log(n)/n; b < bestBIC {
+			best, bestBIC = k, b
+		}
+	}
+	return best
 }
 
 // stabilise shrinks an AR polynomial until its largest root modulus is

@@ -25,9 +25,13 @@ type unionRow struct {
 	Quantiles []float64 // at unionProbs
 }
 
-// unionRowAt returns the quantiles interpolated in 1/T.
-func unionRowAt(T int) []float64 {
+// unionRowAt returns the quantiles interpolated in 1/T, from the table of
+// the long-lag branch (malags.go) when long.
+func unionRowAt(T int, long bool) []float64 {
 	tab := unionTable
+	if long {
+		tab = unionTableLong
+	}
 	if len(tab) == 0 {
 		return nil
 	}
@@ -53,8 +57,8 @@ func unionRowAt(T int) []float64 {
 
 // unionQuantile returns the p quantile of R at length T (p in unionProbs'
 // range; interpolated linearly in p between tabulated probabilities).
-func unionQuantile(T int, p float64) float64 {
-	q := unionRowAt(T)
+func unionQuantile(T int, p float64, long bool) float64 {
+	q := unionRowAt(T, long)
 	if q == nil {
 		return math.Inf(1)
 	}
@@ -63,8 +67,8 @@ func unionQuantile(T int, p float64) float64 {
 
 // unionP returns the upper-tail p-value of R at length T, bounded to the
 // table: 0.5 above the median, 0.005 beyond the last quantile.
-func unionP(T int, R float64) float64 {
-	q := unionRowAt(T)
+func unionP(T int, R float64, long bool) float64 {
+	q := unionRowAt(T, long)
 	if q == nil {
 		return 1
 	}
@@ -90,16 +94,17 @@ func interp(xs, ys []float64, x float64) float64 {
 	return ys[len(ys)-1]
 }
 
-// SimulateUnion returns the sorted values of R on reps driftless Gaussian
+// SimulateUnion returns the sorted values of R in the short-lag branch, or
+// the long-lag branch when long (malags.go), on reps driftless Gaussian
 // random walks of length T, replication r seeded by rand.NewPCG(seed, r),
 // on all cores; replications where a member test fails are left out.
-func SimulateUnion(ctx context.Context, T, reps int, seed uint64) ([]float64, error) {
+func SimulateUnion(ctx context.Context, T, reps int, seed uint64, long bool) ([]float64, error) {
 	rows, err := core.SimulateRows(ctx, core.SimSpec{Reps: reps, Seed: seed}, func() func(r *rand.Rand) []float64 {
 		y := make([]float64, T)
-		f := unionStat(T)
+		u := newUnionCalc(T)
 		return func(r *rand.Rand) []float64 {
 			core.RandomWalk(y, r)
-			s, err := f(y)
+			s, err := u.raw(y, long)
 			if err != nil {
 				return nil
 			}

@@ -2,12 +2,22 @@
 
 package decide
 
-// unionTable holds quantiles (at unionProbs) of the union statistic R under a
-// driftless Gaussian random walk: our own simulation.
+// unionTable holds quantiles (at unionProbs) of the union statistic R in
+// the short-lag branch under a driftless Gaussian random walk: our own simulation.
 var unionTable = []unionRow{
 	{T: 50, Reps: 4000, Quantiles: []float64{0.9342, 0.9760, 1.0209, 1.0793, 1.1134, 1.1588, 1.1918, 1.2373, 1.2578, 1.2854, 1.3052, 1.3302, 1.4086, 1.4821}},
 	{T: 100, Reps: 4000, Quantiles: []float64{0.8908, 0.9285, 0.9690, 1.0192, 1.0549, 1.0968, 1.1270, 1.1661, 1.1897, 1.2130, 1.2320, 1.2532, 1.3031, 1.3567}},
 	{T: 200, Reps: 4000, Quantiles: []float64{0.8657, 0.9018, 0.9410, 0.9866, 1.0136, 1.0523, 1.0813, 1.1254, 1.1463, 1.1696, 1.1925, 1.2124, 1.2780, 1.3258}},
 	{T: 400, Reps: 4000, Quantiles: []float64{0.8513, 0.8870, 0.9277, 0.9731, 1.0049, 1.0451, 1.0765, 1.1217, 1.1459, 1.1665, 1.1772, 1.1924, 1.2513, 1.3112}},
 	{T: 800, Reps: 4000, Quantiles: []float64{0.8456, 0.8764, 0.9196, 0.9656, 0.9973, 1.0392, 1.0687, 1.1095, 1.1262, 1.1488, 1.1673, 1.1890, 1.2679, 1.3228}},
+}
+
+// unionTableLong holds quantiles (at unionProbs) of the union statistic R in
+// the long-lag branch (malags.go) under a driftless Gaussian random walk: our own simulation.
+var unionTableLong = []unionRow{
+	{T: 50, Reps: 4000, Quantiles: []float64{0.8198, 0.8599, 0.9006, 0.9574, 0.9928, 1.0413, 1.0751, 1.1141, 1.1338, 1.1686, 1.1908, 1.2073, 1.2793, 1.3376}},
+	{T: 100, Reps: 4000, Quantiles: []float64{0.8181, 0.8538, 0.8908, 0.9407, 0.9733, 1.0142, 1.0467, 1.0883, 1.1046, 1.1343, 1.1548, 1.1755, 1.2398, 1.3147}},
+	{T: 200, Reps: 4000, Quantiles: []float64{0.8199, 0.8539, 0.8953, 0.9447, 0.9742, 1.0134, 1.0391, 1.0791, 1.0991, 1.1241, 1.1410, 1.1595, 1.2292, 1.2858}},
+	{T: 400, Reps: 4000, Quantiles: []float64{0.8241, 0.8552, 0.8916, 0.9370, 0.9652, 1.0019, 1.0290, 1.0624, 1.0781, 1.1011, 1.1170, 1.1324, 1.2069, 1.2779}},
+	{T: 800, Reps: 4000, Quantiles: []float64{0.8349, 0.8684, 0.9042, 0.9488, 0.9767, 1.0203, 1.0495, 1.0859, 1.1012, 1.1244, 1.1422, 1.1565, 1.2183, 1.2545}},
 }

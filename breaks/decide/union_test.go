@@ -1,5 +1,5 @@
 // Tests of the union of rejections (unitroot.go, union.go): the committed
-// null quantiles of R reproduce under a fresh simulation (our own
+// null quantiles of R (both branches of lag rules) reproduce under a fresh simulation (our own
 // simulation, a different seed; tolerance three Monte Carlo standard errors
 // of a quantile), the scaling constants are the published asymptotic 5%
 // critical values (MacKinnon 2010, Table 2; Zivot & Andrews 1992, Tables 2
@@ -41,21 +41,23 @@ func TestUnionTableReproduces(t *testing.T) {
 		t.Skip("simulation")
 	}
 	const T, reps = 100, 1500
-	s, err := SimulateUnion(context.Background(), T, reps, 777)
-	if err != nil {
-		t.Fatal(err)
-	}
-	for _, p := range []float64{0.90, 0.95} {
-		got := QuantileOf(s, p)
-		want := unionQuantile(T, p)
-		// Standard error of a sample quantile: sqrt(p(1-p)/n)/f(q), with the
-		// density f estimated from the sample's spacing around q.
-		h := 0.02
-		f := 2 * h / (QuantileOf(s, p+h) - QuantileOf(s, p-h))
-		se := math.Sqrt(p*(1-p)/float64(len(s))) / f
-		// The table's own error (4000 draws) adds about half as much again.
-		if math.Abs(got-want) > 3*se*1.25 {
-			t.Errorf("T=%d p=%.2f: fresh %.4f, table %.4f (3 s.e. = %.4f)", T, p, got, want, 3*se*1.25)
+	for _, long := range []bool{false, true} {
+		s, err := SimulateUnion(context.Background(), T, reps, 777, long)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, p := range []float64{0.90, 0.95} {
+			got := QuantileOf(s, p)
+			want := unionQuantile(T, p, long)
+			// Standard error of a sample quantile: sqrt(p(1-p)/n)/f(q), with the
+			// density f estimated from the sample's spacing around q.
+			h := 0.02
+			f := 2 * h / (QuantileOf(s, p+h) - QuantileOf(s, p-h))
+			se := math.Sqrt(p*(1-p)/float64(len(s))) / f
+			// The table's own error (4000 draws) adds about half as much again.
+			if math.Abs(got-want) > 3*se*1.25 {
+				t.Errorf("T=%d p=%.2f long=%v: fresh %.4f, table %.4f (3 s.e. = %.4f)", T, p, long, got, want, 3*se*1.25)
+			}
 		}
 	}
 }
@@ -63,13 +65,13 @@ func TestUnionTableReproduces(t *testing.T) {
 func TestUnionPInvertsQuantile(t *testing.T) {
 	for _, T := range []int{60, 150, 300, 1000} {
 		for _, p := range []float64{0.80, 0.90, 0.95, 0.975, 0.99} {
-			q := unionQuantile(T, p)
-			if back := 1 - unionP(T, q); math.Abs(back-p) > 1e-9 {
+			q := unionQuantile(T, p, false)
+			if back := 1 - unionP(T, q, false); math.Abs(back-p) > 1e-9 {
 				t.Errorf("T=%d: P(R <= q(%.3f)) = %.6f", T, p, back)
 			}
 		}
-		if unionP(T, -10) != 0.5 || math.Abs(unionP(T, 100)-0.005) > 1e-12 {
-			t.Errorf("T=%d: bounds %v %v, want 0.5 and 0.005", T, unionP(T, -10), unionP(T, 100))
+		if unionP(T, -10, false) != 0.5 || math.Abs(unionP(T, 100, false)-0.005) > 1e-12 {
+			t.Errorf("T=%d: bounds %v %v, want 0.5 and 0.005", T, unionP(T, -10, false), unionP(T, 100, false))
 		}
 	}
 }

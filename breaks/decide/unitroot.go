@@ -6,7 +6,9 @@ package decide
 // alternatives: ADF with a constant, ADF with a linear trend (both with BIC
 // lags; Said & Dickey 1984), and Zivot & Andrews (1992) with a level shift
 // (model A) and with a level and slope shift (model C), each with a trend,
-// trimming 0.15 and t-sig lags (at most 8). Running each at 5% and taking any
+// trimming 0.15 and t-sig lags (at most 8). When the differences carry the
+// signature of a large negative moving-average root, every member takes
+// long lags instead (MAIC; malags.go), with its own null table. Running each at 5% and taking any
 // rejection would reject a random walk far more often than 5%. Following
 // the union-of-rejections principle of Harvey, Leybourne & Taylor (2009,
 // 2012), each statistic is divided by its own asymptotic 5% critical value
@@ -17,8 +19,9 @@ package decide
 // which rejects for large values. Two steps, both at α:
 //
 //  1. R against its null quantile under a Gaussian random walk at the
-//     series' length (our own simulation, union_table.go; the scaling
-//     constant λ(T) = q_{1-α}(T) plays the role of HLT's scaling constant);
+//     series' length, for the branch of lag rules in use (our own
+//     simulation, union_table.go; the scaling constant λ(T) = q_{1-α}(T)
+//     plays the role of HLT's scaling constant);
 //  2. when step 1 rejects, the wild bootstrap of R under the fitted I(1)
 //     null (null.go), which carries the series' own changing drift, jumps,
 //     autocorrelation and volatility (Cavaliere & Taylor 2008 for the wild
@@ -59,84 +62,114 @@ var members = []member{
 	{"za", core.TrendLinear, core.ShiftBoth, -5.08, "Zivot-Andrews with a level and slope shift"},
 }
 
-// memberConfig is the configuration of member m: BIC lags for ADF (Said &
-// Dickey 1984 augmentation, Schwert's maximum), t-sig lags chosen per
-// candidate date for Zivot-Andrews (at most 8; Zivot & Andrews 1992 use a
-// t-sig rule). These rules keep the power of the tests; their size under
-// strongly negative moving-average errors is restored by the bootstrap,
-// whose null takes its short-run dynamics from a long autoregression
-// (leadSpec).
-func memberConfig(m member) *core.Config {
+// memberConfig is the configuration of member m in the short-lag branch:
+// BIC lags for ADF (Said & Dickey 1984 augmentation, Schwert's maximum),
+// t-sig lags chosen per candidate date for Zivot-Andrews (at most 8;
+// Zivot & Andrews 1992 use a t-sig rule). These rules keep the power of the
+// tests. In the long-lag branch (malags.go: the differences carry the
+// signature of a large negative moving-average root) ADF chooses its lags
+// by MAIC (Ng & Perron 2001) and Zivot-Andrews uses the one order zaLag for
+// every candidate date.
+func memberConfig(m member, long bool, zaLag int) *core.Config {
 	c := &core.Config{Trend: m.trend, Shift: m.shift, Workers: 1}
-	if m.id == "adf" {
+	switch {
+	case m.id == "adf" && long:
+		c.LagRule = core.LagMAIC
+	case m.id == "adf":
 		c.LagRule = core.LagBIC
+	case long:
+		c.LagRule, c.Lags = core.LagFixed, zaLag
 	}
 	return c
 }
 
-// maicBroken is the MAIC lag order (Ng & Perron 2001, eq. 9) on the series
-// OLS-detrended with a constant, a trend and the level and slope shift at
-// the date Zivot-Andrews (level and slope) found, in the manner of Perron &
-// Qu (2007) with the break added: MAIC picks a long autoregression when the
-// errors have a large negative moving-average root, and a short one for a
-// stationary series around a broken trend (without the break terms it would
-// read the unmodelled break as persistence). Schwert's maximum; 0 when it
-// cannot be computed.
-func maicBroken(y []float64, za *schema.Result) int {
-	T := len(y)
-	if za == nil || len(za.Breaks) == 0 {
-		return 0
-	}
-	tb := za.Breaks[0].Index
-	cols := make([][]float64, 4)
-	for j := range cols {
-		cols[j] = make([]float64, T)
-	}
-	for i := range T {
-		t := float64(i + 1)
-		cols[0][i], cols[1][i] = 1, t
-		if i+1 > tb {
-			cols[2][i], cols[3][i] = 1, t-float64(tb)
-		}
-	}
-	var ls core.LS
-	f, err := ls.Fit(cols, y)
-	if err != nil {
-		return 0
-	}
-	var c core.Config
-	var dw core.DFWork
-	k, err := dw.SelectLags(f.Resid, core.TrendNone, core.LagMAIC, c.MaxLagsFor(T, 4))
-	if err != nil {
-		return 0
-	}
-	return k
+// unionCalc computes the union statistic on series of length T with its
+// own scratch space, in either branch.
+type unionCalc struct {
+	T     int
+	short []core.StatFunc         // members, short-lag rules
+	long  []core.StatFunc         // ADF members with MAIC (Zivot-Andrews: zaAt)
+	zaAt  map[int][]core.StatFunc // Zivot-Andrews members at a fixed order
+	tb    trendBreak
+	err   error
 }
 
-// unionStat returns a function computing R on series of length T with its
-// own scratch space.
-func unionStat(T int) func([]float64) (float64, error) {
-	fs := make([]core.StatFunc, len(members))
-	for i, m := range members {
+func newUnionCalc(T int) *unionCalc {
+	u := &unionCalc{T: T, zaAt: map[int][]core.StatFunc{}}
+	for _, m := range members {
 		info, err := core.Lookup(m.id)
 		if err != nil {
-			return func([]float64) (float64, error) { return 0, err }
+			u.err = err
+			return u
 		}
-		c := memberConfig(m)
+		c := memberConfig(m, false, 0)
 		c.NoPath = true
-		fs[i] = info.StatOf(T, c)
-	}
-	return func(y []float64) (float64, error) {
-		r := math.Inf(-1)
-		for i, f := range fs {
-			s, err := f(y)
-			if err != nil {
-				return 0, err
-			}
-			r = max(r, s/members[i].cv)
+		u.short = append(u.short, info.StatOf(T, c))
+		if m.id == "adf" {
+			c := memberConfig(m, true, 0)
+			c.NoPath = true
+			u.long = append(u.long, info.StatOf(T, c))
 		}
-		return r, nil
 	}
+	return u
+}
+
+// za returns the Zivot-Andrews members at fixed order k.
+func (u *unionCalc) za(k int) []core.StatFunc {
+	if fs, ok := u.zaAt[k]; ok {
+		return fs
+	}
+	var fs []core.StatFunc
+	for _, m := range members {
+		if m.id != "za" {
+			continue
+		}
+		info, err := core.Lookup(m.id)
+		if err != nil {
+			return nil
+		}
+		c := memberConfig(m, true, k)
+		c.NoPath = true
+		fs = append(fs, info.StatOf(u.T, c))
+	}
+	u.zaAt[k] = fs
+	return fs
+}
+
+// raw returns R = max_i τ_i / cv_i in the given branch.
+func (u *unionCalc) raw(y []float64, long bool) (float64, error) {
+	if u.err != nil {
+		return 0, u.err
+	}
+	fs := u.short
+	if long {
+		fs = append(u.long[:len(u.long):len(u.long)], u.za(u.tb.longLag(y))...)
+	}
+	if len(fs) != len(members) {
+		return 0, fmt.Errorf("union: %d of %d members prepared", len(fs), len(members))
+	}
+	r := math.Inf(-1)
+	for i, f := range fs {
+		s, err := f(y)
+		if err != nil {
+			return 0, err
+		}
+		r = max(r, s/members[i].cv)
+	}
+	return r, nil
+}
+
+// scaled returns R divided by the 95% null quantile of its branch at T, the
+// statistic the bootstrap compares, so that samples falling in different
+// branches are on one scale. The branch is chosen on each sample as on the
+// data.
+func (u *unionCalc) scaled(y []float64) (float64, error) {
+	long := longLags(y)
+	r, err := u.raw(y, long)
+	if err != nil {
+		return 0, err
+	}
+	return r / unionQuantile(u.T, 0.95, long), nil
 }
 
 type unitRootOut struct {
@@ -159,10 +192,18 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 	out := &unitRootOut{stage: schema.Stage{Name: "unit-root", Level: w.alpha,
 		Method: "union of rejections (Harvey, Leybourne & Taylor 2009, 2012) of ADF (constant; trend) and Zivot-Andrews (level; level and slope), scaled by a simulated constant and confirmed by the wild bootstrap under the fitted I(1) null (Cavaliere & Taylor 2008)"}}
 	R := math.Inf(-1)
+	calc := newUnionCalc(T)
+	r1 := diffAutocorr(x)
+	long := r1 <= maCut
+	zaLag := 0
+	if long {
+		zaLag = calc.tb.longLag(x)
+		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("the differences have first autocorrelation %.2f (at most %.2f): the signature of a large negative moving-average root, so every member takes long lags (MAIC, Ng & Perron 2001; Zivot-Andrews at %d lags for every date)", r1, maCut, zaLag))
+	}
 	for i, m := range members {
 		cfg := w.config(m.trend)
-		mc := memberConfig(m)
-		cfg.Shift, cfg.LagRule = mc.Shift, mc.LagRule
+		mc := memberConfig(m, long, zaLag)
+		cfg.Shift, cfg.LagRule, cfg.Lags = mc.Shift, mc.LagRule, mc.Lags
 		res, err := w.run(ctx, m.id, x, cfg)
 		if err != nil {
 			return nil, err
@@ -188,8 +229,8 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 		return out, nil
 	}
 	out.stage.Statistic = schema.F(R)
-	lam := unionQuantile(T, 1-w.alpha)
-	pTab := unionP(T, R)
+	lam := unionQuantile(T, 1-w.alpha, long)
+	pTab := unionP(T, R, long)
 	if pTab < 0.5 {
 		out.stage.PValue = schema.F(pTab) // 0.5 is the table's bound: p >= 0.5
 	}
@@ -200,14 +241,17 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 	}
 	mu, db := driftPath(diff(x), 2, 0.15)
 	rich := len(members) - 1 // Zivot-Andrews with a level and slope shift nests the others
-	kLong := maicBroken(x, out.tests[rich])
-	null, err := fitNull(x, leadSpec(members[rich], out.tests[rich], kLong), mu, db)
+	spec := leadSpec(members[rich], out.tests[rich])
+	if !long {
+		spec.k = nullOrder(x, spec, spec.k)
+	}
+	null, err := fitNull(x, spec, mu, db)
 	if err != nil {
 		out.stage.Decision = "unit root not rejected"
 		out.stage.Evidence = append(out.stage.Evidence, "the I(1) null could not be fitted for the bootstrap ("+err.Error()+"); the union is not confirmed")
 		return out, nil
 	}
-	p, failed, err := bootstrapP(ctx, null, T, unitRootDraws, w.seed^0x0e1, R, unionStat(T))
+	p, failed, err := bootstrapP(ctx, null, T, unitRootDraws, w.seed^0x0e1, R/unionQuantile(T, 0.95, long), calc.scaled)
 	if err != nil {
 		if ctx.Err() != nil {
 			return nil, err
@@ -243,19 +287,20 @@ func pWords(p float64) string {
 }
 
 // leadSpec is the regression whose dynamics the bootstrap null takes
-// (null.go): the deterministic terms and break date of a member (the
-// procedure passes Zivot-Andrews with a level and slope shift, whose
+// (null.go): the deterministic terms, break date and lag order of a member
+// (the procedure passes Zivot-Andrews with a level and slope shift, whose
 // regression nests those of the other members, so that whatever level or
-// trend change the series has is in the regression and not in the γ_j),
-// with the larger of its own lag order and kLong, the order MAIC chooses.
-// MAIC picks long autoregressions exactly when the errors have a large
-// negative moving-average root, so the recoloured bootstrap samples carry
-// that root and the bootstrap distribution of R shifts with it (the
-// members' own short lag rules over-reject there); for a stationary series
-// the unrestricted regression puts the persistence in ρ, not in the γ_j,
-// and the bootstrap keeps its power (Palm, Smeekes & Urbain 2008).
-func leadSpec(m member, r *schema.Result, kLong int) dynSpec {
-	s := dynSpec{k: max(r.Lags, kLong), trend: m.trend}
+// trend change the series has is in the regression and not in the γ_j).
+// Its lag order is the member's own: t-sig in the short-lag branch, MAIC
+// in the long-lag branch (malags.go), where the recoloured bootstrap
+// samples then carry a large negative moving-average root as the data do.
+// Taking the dynamics from the unrestricted regression keeps the power of
+// the bootstrap against stationary alternatives (Palm, Smeekes & Urbain
+// 2008). A long MAIC order in the short-lag branch would not: on a
+// trend-stationary series with a misdated break its many negative γ_j
+// make the bootstrap samples look stationary too (our simulation).
+func leadSpec(m member, r *schema.Result) dynSpec {
+	s := dynSpec{k: r.Lags, trend: m.trend}
 	if m.id == "za" && len(r.Breaks) > 0 {
 		tb := r.Breaks[0].Index
 		s.du = []int{tb}
