@@ -66,6 +66,54 @@ type dynSpec struct {
 	k      int
 	trend  core.Trend
 	du, dt []int
+	// sd, when set, is the local standard deviation of the differences
+	// (index t-2 for Δy_t, localSD): the regression is then fitted by
+	// weighted least squares, each row divided by sd.
+	sd []float64
+}
+
+// weigh divides row i (time t = start+i) of dep and of every column by
+// s.sd[t-2], when s.sd is set.
+func (s dynSpec) weigh(start int, dep []float64, cols [][]float64) {
+	if s.sd == nil {
+		return
+	}
+	for i := range dep {
+		w := 1 / s.sd[start+i-2]
+		dep[i] *= w
+		for _, c := range cols {
+			c[i] *= w
+		}
+	}
+}
+
+// localSD returns the local standard deviation of d (the differences less
+// their drift path): the root mean square of d over the centred window of
+// h = max(5, ⌈T/20⌉) observations either side, floored at a tenth of the
+// overall root mean square. Weighting the null's regression by it is the
+// adaptive estimation of Xu & Phillips (2008) for autoregressions whose
+// innovation variance changes over time (their kernel estimate with a
+// uniform kernel and our fixed bandwidth): under a crisis burst of
+// volatility, ordinary least squares lets the few burst observations
+// dominate the lag coefficients, and the spurious lags it keeps make the
+// recoloured bootstrap samples less like the data.
+func localSD(d []float64) []float64 {
+	n := len(d)
+	h := max(5, (n+19)/20)
+	cum := make([]float64, n+1)
+	for i, v := range d {
+		cum[i+1] = cum[i] + v*v
+	}
+	floor := 0.01 * cum[n] / float64(max(n, 1))
+	sd := make([]float64, n)
+	for i := range d {
+		a, b := max(0, i-h), min(n, i+h+1)
+		sd[i] = math.Sqrt(max((cum[b]-cum[a])/float64(b-a), floor))
+		if !(sd[i] > 0) {
+			sd[i] = 1
+		}
+	}
+	return sd
 }
 
 // fitSieve fits the I(1) null by the restricted sieve: an autoregression
@@ -235,6 +283,7 @@ func fitNull(y []float64, spec dynSpec, mu []float64, driftBreaks []int) (*nullM
 		t := start + i
 		dep[i] = y[t-1] - y[t-2]
 	}
+	spec.weigh(start, dep, cols)
 	var ls core.LS
 	f, err := ls.Fit(cols, dep)
 	if err != nil {
@@ -324,6 +373,7 @@ func nullOrder(y []float64, spec dynSpec, kmax int) int {
 		lags[j-1] = col(func(t int) float64 { return y[t-1-j] - y[t-2-j] })
 	}
 	dep := col(func(t int) float64 { return y[t-1] - y[t-2] })
+	spec.weigh(start, dep, append(append([][]float64{lev}, lags...), det...))
 	var ls core.LS
 	best, bestBIC := kmax, math.Inf(1)
 	for k := 0; k <= kmax; k++ {

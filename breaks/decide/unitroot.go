@@ -242,6 +242,11 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 	mu, db := driftPath(diff(x), 2, 0.15)
 	rich := len(members) - 1 // Zivot-Andrews with a level and slope shift nests the others
 	spec := leadSpec(members[rich], out.tests[rich])
+	d := diff(x)
+	for i := range d {
+		d[i] -= mu[i]
+	}
+	spec.sd = localSD(d)
 	if !long {
 		spec.k = nullOrder(x, spec, spec.k)
 	}
