@@ -37,6 +37,9 @@ type Table struct {
 	// Header holds the column names as read (after renaming), one per
 	// column of the file; nil for the streaming readers.
 	Header []string
+	// allSeries names every series of the file when Series holds only
+	// some of them (ReadColumns), for Select's messages.
+	allSeries []string
 }
 
 // Series is one numeric column.
@@ -157,24 +160,16 @@ func sampleEnd(data []byte) int {
 
 // detectDecimal votes on the decimal mark over every data cell.
 func detectDecimal(recs []record, delim byte) (decimal, string) {
-	comma, point, amb := 0, 0, 0
-	example := ""
+	var v decimalVotes
 	for _, r := range recs[min(1, len(recs)):] {
-		for _, f := range r.fields {
-			c, p, a := decimalVote(f)
-			switch {
-			case c:
-				comma++
-			case p:
-				point++
-			case a:
-				amb++
-				if example == "" {
-					example = trimSpace(f)
-				}
-			}
-		}
+		v.add(r.fields)
 	}
+	return v.decide(delim)
+}
+
+// decide picks the decimal mark from the votes, with the note to make.
+func (v *decimalVotes) decide(delim byte) (decimal, string) {
+	comma, point, amb, example := v.comma, v.point, v.amb, v.example
 	switch {
 	case comma > 0 && point > 0:
 		if comma >= point {
