@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -221,6 +222,20 @@ func (c *cp1252Reader) Read(p []byte) (int, error) {
 	return k, nil
 }
 
+// cell is the trimmed cell of data row i of a column that may hold dates:
+// a kept cell, or the first cell that is not a date.
+func (c *colStats) cell(i int) string {
+	if i < len(c.text) && c.text != nil {
+		return c.text[i]
+	}
+	for _, d := range c.dates {
+		if d.bad == i {
+			return d.badVal
+		}
+	}
+	return ""
+}
+
 // colStats is what the streaming reader keeps about one column: the
 // figures Parse's per-column decisions use, and the column's values or
 // cells when it is kept.
@@ -234,7 +249,22 @@ type colStats struct {
 	keepVals bool
 	keepText bool
 	vals     []float64
-	text     []string // trimmed cells
+	text     []string // trimmed cells, while the column may hold dates
+	first    string   // the first cell, trimmed, of a column that may hold dates
+	// The date reading of a column that may hold dates, for each way it may
+	// be read (named like a date or not, as the names are not final): a
+	// cell that is not a date settles what parseDates returns, and the
+	// cells are then dropped.
+	dates []dateTrack
+}
+
+// dateTrack follows parseDates' first pass over a column: the cells read
+// as date cells with ints, and the first that is not one.
+type dateTrack struct {
+	ints   int
+	parsed int
+	bad    int // data row, -1 none
+	badVal string
 }
 
 // streamParse is one attempt of ReadColumns, reading the input as UTF-8
@@ -588,13 +618,26 @@ func (s *streamer) choose(f []string) {
 			}
 		}
 		c.keepVals = c.keepVals || all
+		cell := ""
+		if j < len(f) {
+			cell = f[j]
+		}
 		if s.opt.DateColumn == "" && !c.keepText {
-			cell := ""
-			if j < len(f) {
-				cell = f[j]
-			}
 			first, ok := parseCell(cell, fo.ints)
 			c.keepText = ok && !(first.v.k == kYear && j > 0)
+		}
+		if c.keepText {
+			c.first = strings.Clone(trimSpace(cell))
+			for _, n := range name(j) {
+				ints := 0
+				if s.opt.DateColumn != "" || dateNamed(n) {
+					ints = -1
+				}
+				o, _ := parseDateFormat(s.opt.DateFormat, ints)
+				if !slices.ContainsFunc(c.dates, func(d dateTrack) bool { return d.ints == o.ints }) {
+					c.dates = append(c.dates, dateTrack{ints: o.ints, bad: -1})
+				}
+			}
 		}
 		if c.keepVals || c.keepText {
 			s.kept = append(s.kept, j)
@@ -687,7 +730,7 @@ func (s *streamer) row(r record) {
 			}
 		}
 		if c.keepText {
-			c.text = append(c.text, strings.Clone(t))
+			s.date(c, i, t)
 		}
 	}
 	// Kept columns this row does not reach are empty cells.
@@ -700,9 +743,29 @@ func (s *streamer) row(r record) {
 			c.vals = append(c.vals, math.NaN())
 		}
 		if c.keepText {
-			c.text = append(c.text, "")
+			s.date(c, i, "")
 		}
 	}
+}
+
+// date takes cell t (trimmed) of data row i of a column that may hold
+// dates: its cells are kept until one is not a date cell for every reading.
+func (s *streamer) date(c *colStats, i int, t string) {
+	open := false
+	for k := range c.dates {
+		d := &c.dates[k]
+		if _, ok := parseCell(t, d.ints); ok {
+			d.parsed++
+		} else if d.bad < 0 {
+			d.bad, d.badVal = i, strings.Clone(t)
+		}
+		open = open || d.bad < 0
+	}
+	if !open {
+		c.text = nil
+		return
+	}
+	c.text = append(c.text, strings.Clone(t))
 }
 
 // finish makes the table from what read kept, with build's decisions in
@@ -745,9 +808,7 @@ func (s *streamer) finish() (*Table, error) {
 		pe := &ParseError{File: name, Column: j + 1, ColumnName: names[j], Err: err}
 		if i >= 0 && i < rows {
 			pe.Row = s.lines[i]
-			if cols[j].keepText {
-				pe.Value = cols[j].text[i]
-			}
+			pe.Value = cols[j].cell(i)
 		} else {
 			pe.Row = head.line
 		}
@@ -781,13 +842,19 @@ func (s *streamer) finish() (*Table, error) {
 			ints = -1
 		}
 		o, _ := parseDateFormat(opt.DateFormat, ints)
+		for _, d := range cols[j].dates {
+			if d.ints == o.ints && d.bad >= 0 {
+				// parseDates' answer for a column with a cell that is not a date.
+				return nil, &dateColumnError{d.bad, fmt.Errorf("%w (accepted forms: %s)", ErrBadDate, AcceptedDateForms), d.parsed}
+			}
+		}
 		return parseDates(cols[j].text, o)
 	}
 	notYears := func(j int, d *dateColumn, named bool) string {
 		if d.kind != kYear || len(d.labels) == 0 {
 			return ""
 		}
-		if v, ok := parseDate(cols[j].text[0]); !ok || v.k != kYear {
+		if v, ok := parseDate(cols[j].first); !ok || v.k != kYear {
 			return ""
 		}
 		lo, hi := atoi(d.labels[0]), atoi(d.labels[len(d.labels)-1])
@@ -836,7 +903,7 @@ func (s *streamer) finish() (*Table, error) {
 				continue
 			}
 			fo, _ := parseDateFormat(opt.DateFormat, 0)
-			first, ok := parseCell(cols[j].text[0], fo.ints)
+			first, ok := parseCell(cols[j].first, fo.ints)
 			if !ok || (first.v.k == kYear && j > 0) {
 				continue
 			}

@@ -246,6 +246,9 @@ func TestReadColumnsEdgeCases(t *testing.T) {
 		"mixed-ok":      "date,y,v\n2009-01,1,a\n2009-02,x,2\n2009-03,3,3\n",
 		"dup-names":     "date,y,y,Y,column4,\n2009-01,1,2,3,4,5\n2009-02,2,3,4,5,6\n",
 		"quoted":        "date,y,z\n2009-01,\"1,234.5\",2\n2009-02,\"2,000\",\"a\"\"b\"\n2009-03,3,\"4\n5\"\n",
+		"bad-date":      "date,y\n2009-01,1\n2009-02,2\nfoo,3\n2009-04,4\n",
+		"bad-date-2":    "when,y\n2009-01,1\nbar,2\n2009-03,3\n",
+		"month-numbers": "a,y\n1.2345,1\n2.2009,2\n-3.1999,3\n4.5,4\n",
 		"wide":          string(wide),
 	}
 	for name, data := range cases {
