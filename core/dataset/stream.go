@@ -315,7 +315,7 @@ func streamParse(name string, open func() (io.ReadCloser, error), opt *Options, 
 		// The sample of Parse: read until its end is known.
 		pre := make([]byte, 0, 64<<10)
 		eof := false
-		for {
+		for empty := 0; ; {
 			end := sampleEnd(pre)
 			if end < len(pre) || eof {
 				delim = detectDelimiter(sampleLines(pre[:end], 50, end < len(pre)))
@@ -330,6 +330,10 @@ func streamParse(name string, open func() (io.ReadCloser, error), opt *Options, 
 				eof = true
 			} else if err != nil {
 				return nil, err
+			} else if n == 0 {
+				if empty++; empty > 100 {
+					return nil, io.ErrNoProgress
+				}
 			}
 		}
 		src = io.MultiReader(bytes.NewReader(pre), src)
