@@ -32,10 +32,10 @@ type Table struct {
 	// DecimalComma reports that numbers were read with a decimal comma.
 	DecimalComma bool
 	// Lines is the 1-based file line (sheet row) of each data row; nil for
-	// the streaming readers.
+	// the long and JSON Lines readers.
 	Lines []int
 	// Header holds the column names as read (after renaming), one per
-	// column of the file; nil for the streaming readers.
+	// column of the file; nil for the long and JSON Lines readers.
 	Header []string
 	// allSeries names every series of the file when Series holds only
 	// some of them (ReadColumns), for Select's messages.
