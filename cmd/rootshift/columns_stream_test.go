@@ -8,6 +8,7 @@
 package main
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"syscall"
@@ -60,6 +61,13 @@ func TestColumnsStreamSameOutput(t *testing.T) {
 	noted := []byte("date,y,label,big,y,z\n2001-01,1.5,a,\"1,200\",3,4\n2001-02,1.7,b,\"1,300\",4,5\n\n" +
 		"2001-04,1.2,c,\"1,250\",5,6\n2001-05,1.9,d,\"1,280\",6\n2001-06,2.2,e,\"1,310\",7,8\n2001-07,2.0,f,\"1,290\",8,9\n" +
 		"2001-08,2.4,g,\"1,330\",9,10\n2001-09,2.1,h,\"1,320\",10,11\n2001-10,2.6,i,\"1,350\",11,12\n2001-11,2.8,j,\"1,340\",12,13\n")
+	// Semicolons and decimal commas (two passes), not UTF-8 (read again as
+	// Windows-1252).
+	var latin []byte
+	latin = append(latin, "Datum;Umsatz \xe9t\xe9;Zins\n"...)
+	for i := 0; i < 30; i++ {
+		latin = append(latin, fmt.Sprintf("%02d.%02d.2009;%d,%d;%d,5\n", 1+i%28, 1+i/28, 100+i*i%17, i%10, i%7)...)
+	}
 	dir := t.TempDir()
 	for _, c := range []struct {
 		name string
@@ -70,6 +78,7 @@ func TestColumnsStreamSameOutput(t *testing.T) {
 		{"demo.csv", demo, "Power_Demand,jobless_rate,no_such"},
 		{"noted.csv", noted, "y_2,big"},
 		{"noted.csv", noted, "label"},
+		{"latin.csv", latin, "Zins"},
 	} {
 		p := filepath.Join(dir, c.name)
 		s, w := runBoth(t, p, c.data, "test", "--tests", "adf,kpss", "--json", "--columns", c.cols, p)
