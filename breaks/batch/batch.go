@@ -354,6 +354,7 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 		var r io.Reader
 		var f *os.File
 		var data []byte
+		stream := cfg.Kind != KindLong && cfg.Kind != KindJSONL && Streamable(p, cfg.Settings)
 		if p == "-" {
 			r, name, canon = cfg.Stdin, "stdin", "stdin"
 			if r == nil {
@@ -376,6 +377,17 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 						continue
 					}
 					r = br
+				}
+			} else if stream {
+				// Selected columns: a streaming pass for the fingerprint, the
+				// reading passes below keep only those columns.
+				fp, err = FingerprintFile(p)
+				if err == nil {
+					var head []byte
+					if head, err = readHead(p, 4096); err == nil && IsOwnOutput(head) {
+						note(fmt.Sprintf("%s: skipped, it is an output of rootshift (schema marker)", p))
+						continue
+					}
 				}
 			} else {
 				data, err = os.ReadFile(p)
@@ -410,7 +422,9 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 			}
 			var t *dataset.Table
 			opt := dataset.OptionsFor(cfg.Settings)
-			if p != "-" && strings.EqualFold(filepath.Ext(p), ".xlsx") {
+			if stream {
+				t, err = ReadSelected(filepath.Base(p), p, cfg.Settings)
+			} else if p != "-" && strings.EqualFold(filepath.Ext(p), ".xlsx") {
 				t, err = dataset.ReadXLSX(filepath.Base(p), data, opt)
 			} else {
 				base := name

@@ -1,7 +1,10 @@
 // Package batch runs rootshift over many series on a server: many files or a
 // directory, one wide file, a long file (id, date, value) or JSON Lines on
-// standard input. It streams: memory is bounded by the number of series in
-// flight, not by the input size. A bad series yields a record with its
+// standard input. Long files, JSON Lines and the selected columns
+// (Settings.Columns) of a regular text file are streamed: memory is bounded
+// by the number of series in flight, not by the input size. A wide file read
+// for all its columns, a workbook or a wide file on standard input is read
+// whole first (about five times its size). A bad series yields a record with its
 // errors and the run goes on. Runs resume (series already in the output are
 // skipped) and shard deterministically (a stable hash of the series id), so
 // n array jobs on n machines together equal one full run, up to line order.

@@ -175,6 +175,15 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	// bad file is a usage error before any output.
 	var parsed []parsedFile
 	for _, f := range files {
+		if f != "demo:" && batch.Streamable(f, s) {
+			// Selected columns of a file: read by streaming, memory that of
+			// the columns. A file that fails is read again whole below, for
+			// the message (and the long-table hint) of the whole-file reader.
+			if t, err := batch.ReadSelected(f, f, s); err == nil {
+				parsed = append(parsed, parsedFile{f, t})
+				continue
+			}
+		}
 		name, data, err := e.readInput(f)
 		if err != nil {
 			e.errorf("%v", err)

@@ -51,6 +51,16 @@
 // case, equal to one of NA, N/A, NaN, ".", "#N/A", null, "-" is missing and is
 // stored as NaN. The list is MissingMarkers.
 //
+// # Streaming the selected columns
+//
+// ReadColumns reads delimited text row by row and keeps only some columns'
+// values (with the date column and a few counts per column): the table is
+// the one Parse returns for the whole file, restricted to those series, with
+// the same notes and errors. The decisions that need the whole file take a
+// sample (the delimiter, as Parse), a first pass that keeps counts (the
+// decimal mark of ';' and tab files) or counts kept while reading (date,
+// index and row-name columns); see ReadColumns.
+//
 // # Index columns
 //
 // The leading column is a row index, not a series (noted), when its header is

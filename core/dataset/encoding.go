@@ -39,10 +39,13 @@ func decodeText(name string, data []byte) ([]byte, string, error) {
 		}
 	}
 	if !utf8.Valid(data) {
-		return cp1252To8(data), "the file is not UTF-8: read as Windows-1252 (Latin-1 with the typographic characters of 0x80-0x9F); save it as UTF-8 if names look wrong", nil
+		return cp1252To8(data), cp1252Note, nil
 	}
 	return data, "", nil
 }
+
+// cp1252Note is the note on text read as Windows-1252.
+const cp1252Note = "the file is not UTF-8: read as Windows-1252 (Latin-1 with the typographic characters of 0x80-0x9F); save it as UTF-8 if names look wrong"
 
 // cp1252High maps the bytes 0x80-0x9F of Windows-1252 (WHATWG Encoding
 // Standard, index windows-1252); 0 marks the five unassigned bytes, read as

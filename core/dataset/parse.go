@@ -32,11 +32,14 @@ type Table struct {
 	// DecimalComma reports that numbers were read with a decimal comma.
 	DecimalComma bool
 	// Lines is the 1-based file line (sheet row) of each data row; nil for
-	// the streaming readers.
+	// the long and JSON Lines readers.
 	Lines []int
 	// Header holds the column names as read (after renaming), one per
-	// column of the file; nil for the streaming readers.
+	// column of the file; nil for the long and JSON Lines readers.
 	Header []string
+	// allSeries names every series of the file when Series holds only
+	// some of them (ReadColumns), for Select's messages.
+	allSeries []string
 }
 
 // Series is one numeric column.
@@ -157,24 +160,16 @@ func sampleEnd(data []byte) int {
 
 // detectDecimal votes on the decimal mark over every data cell.
 func detectDecimal(recs []record, delim byte) (decimal, string) {
-	comma, point, amb := 0, 0, 0
-	example := ""
+	var v decimalVotes
 	for _, r := range recs[min(1, len(recs)):] {
-		for _, f := range r.fields {
-			c, p, a := decimalVote(f)
-			switch {
-			case c:
-				comma++
-			case p:
-				point++
-			case a:
-				amb++
-				if example == "" {
-					example = trimSpace(f)
-				}
-			}
-		}
+		v.add(r.fields)
 	}
+	return v.decide(delim)
+}
+
+// decide picks the decimal mark from the votes, with the note to make.
+func (v *decimalVotes) decide(delim byte) (decimal, string) {
+	comma, point, amb, example := v.comma, v.point, v.amb, v.example
 	switch {
 	case comma > 0 && point > 0:
 		if comma >= point {
@@ -264,7 +259,6 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 	}
 	// Data rows and the blank rows between them.
 	rows := make([]record, 0, len(recs)-1)
-	type blankAt struct{ pos, line int }
 	var blanks []blankAt
 	for _, r := range recs[1:] {
 		if r.fields == nil {
@@ -303,37 +297,8 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 			Message: fmt.Sprintf("the header is row %d; the title rows above it were skipped (%q)", head.line, strings.Join(head.title, " / "))})
 	}
 	ncol := len(head.fields)
-	// Names: empty headers become columnN, repeated ones get the first free
-	// suffix _2, _3 ... that no other header uses.
-	names := make([]string, ncol)
-	taken := map[string]bool{}
-	for _, h := range head.fields {
-		taken[trimSpace(h)] = true
-	}
-	used := map[string]bool{}
-	for j, h := range head.fields {
-		h = trimSpace(h)
-		orig := h
-		if h == "" {
-			h = fmt.Sprintf("column%d", j+1)
-			for k := 2; taken[h] || used[h]; k++ {
-				h = fmt.Sprintf("column%d_%d", j+1, k)
-			}
-		}
-		if used[h] {
-			base := h
-			for k := 2; used[h] || (taken[h] && h != base); k++ {
-				h = fmt.Sprintf("%s_%d", base, k)
-			}
-			t.Notes = append(t.Notes, Note{Kind: "renamed", Row: head.line, Column: j + 1, ColumnName: h,
-				Message: fmt.Sprintf("the header %q repeats an earlier column's: this column is named %q", orig, h)})
-		} else if orig == "" {
-			t.Notes = append(t.Notes, Note{Kind: "renamed", Row: head.line, Column: j + 1, ColumnName: h,
-				Message: fmt.Sprintf("the header cell is empty: the column is named %q", h)})
-		}
-		used[h] = true
-		names[j] = h
-	}
+	names, renamed := columnNames(head.fields, head.line)
+	t.Notes = append(t.Notes, renamed...)
 	short, shortFirst := 0, 0
 	for _, r := range rows {
 		if len(r.fields) < ncol {
@@ -503,25 +468,8 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 	}
 	// Blank rows inside the data.
 	if len(blanks) > 0 {
-		lines := make([]string, 0, min(len(blanks), 10))
-		for _, b := range blanks[:min(len(blanks), 10)] {
-			lines = append(lines, fmt.Sprint(b.line))
-		}
-		list := "line " + strings.Join(lines, ", ")
-		if len(blanks) > 1 {
-			list = "lines " + strings.Join(lines, ", ")
-		}
-		if len(blanks) > 10 {
-			list += fmt.Sprintf(" and %d more", len(blanks)-10)
-		}
-		what := "a blank row"
-		if len(blanks) > 1 {
-			what = fmt.Sprintf("%d blank rows", len(blanks))
-		}
-		if dc != nil {
-			t.Notes = append(t.Notes, Note{Kind: "blank-row", Row: blanks[0].line,
-				Message: fmt.Sprintf("%s (%s) left out: the dates show which periods are missing", what, list)})
-		} else {
+		t.Notes = append(t.Notes, blankRowsNote(blanks, dc != nil))
+		if dc == nil {
 			full := make([]record, 0, len(rows)+len(blanks))
 			k := 0
 			for i := 0; i <= len(rows); i++ {
@@ -534,8 +482,6 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 				}
 			}
 			rows = full
-			t.Notes = append(t.Notes, Note{Kind: "blank-row", Row: blanks[0].line,
-				Message: fmt.Sprintf("%s (%s) read as missing observations", what, list)})
 		}
 	}
 	if dc == nil && opt.DateFormat != "" {
@@ -687,6 +633,72 @@ func build(name string, recs []record, opt *Options, dec decimal, xlsx bool) (*T
 	}
 	t.attachNotes()
 	return t, nil
+}
+
+// blankAt is a blank record inside the data: pos data rows come before it.
+type blankAt struct{ pos, line int }
+
+// blankRowsNote is the note on the blank rows inside the data: left out
+// when the table has dates, read as missing observations otherwise.
+func blankRowsNote(blanks []blankAt, dated bool) Note {
+	lines := make([]string, 0, min(len(blanks), 10))
+	for _, b := range blanks[:min(len(blanks), 10)] {
+		lines = append(lines, fmt.Sprint(b.line))
+	}
+	list := "line " + strings.Join(lines, ", ")
+	if len(blanks) > 1 {
+		list = "lines " + strings.Join(lines, ", ")
+	}
+	if len(blanks) > 10 {
+		list += fmt.Sprintf(" and %d more", len(blanks)-10)
+	}
+	what := "a blank row"
+	if len(blanks) > 1 {
+		what = fmt.Sprintf("%d blank rows", len(blanks))
+	}
+	if dated {
+		return Note{Kind: "blank-row", Row: blanks[0].line,
+			Message: fmt.Sprintf("%s (%s) left out: the dates show which periods are missing", what, list)}
+	}
+	return Note{Kind: "blank-row", Row: blanks[0].line,
+		Message: fmt.Sprintf("%s (%s) read as missing observations", what, list)}
+}
+
+// columnNames names the columns of a header row (on file line line): empty
+// headers become columnN, repeated ones get the first free suffix _2, _3 ...
+// that no other header uses; each renaming is a note.
+func columnNames(fields []string, line int) ([]string, []Note) {
+	var notes []Note
+	names := make([]string, len(fields))
+	taken := map[string]bool{}
+	for _, h := range fields {
+		taken[trimSpace(h)] = true
+	}
+	used := map[string]bool{}
+	for j, h := range fields {
+		h = trimSpace(h)
+		orig := h
+		if h == "" {
+			h = fmt.Sprintf("column%d", j+1)
+			for k := 2; taken[h] || used[h]; k++ {
+				h = fmt.Sprintf("column%d_%d", j+1, k)
+			}
+		}
+		if used[h] {
+			base := h
+			for k := 2; used[h] || (taken[h] && h != base); k++ {
+				h = fmt.Sprintf("%s_%d", base, k)
+			}
+			notes = append(notes, Note{Kind: "renamed", Row: line, Column: j + 1, ColumnName: h,
+				Message: fmt.Sprintf("the header %q repeats an earlier column's: this column is named %q", orig, h)})
+		} else if orig == "" {
+			notes = append(notes, Note{Kind: "renamed", Row: line, Column: j + 1, ColumnName: h,
+				Message: fmt.Sprintf("the header cell is empty: the column is named %q", h)})
+		}
+		used[h] = true
+		names[j] = h
+	}
+	return names, notes
 }
 
 // hasGroups reports whether a cell that reads as a number uses thousands

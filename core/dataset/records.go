@@ -147,7 +147,11 @@ func quoteState(s string, delim byte, inQ bool) bool {
 // record with nil fields), or io.EOF. A quoted field that is still open at
 // the end of the input is a *ParseError wrapping ErrQuote naming the line
 // where the record began.
-func (r *recordReader) next() (record, error) {
+func (r *recordReader) next() (record, error) { return r.nextInto(nil) }
+
+// nextInto is next with the fields appended to dst[:0] (a reused slice):
+// the streaming reader's rows allocate one string per row, nothing per cell.
+func (r *recordReader) nextInto(dst []string) (record, error) {
 	for {
 		s, ok, err := r.readLine()
 		if err != nil {
@@ -182,15 +186,20 @@ func (r *recordReader) next() (record, error) {
 			}
 			continue
 		}
-		return record{line: start, fields: splitFields(s, r.delim)}, nil
+		return record{line: start, fields: splitFieldsInto(dst, s, r.delim)}, nil
 	}
 }
 
 // splitFields splits one record; unquoted fields are substrings of s.
-func splitFields(s string, delim byte) []string {
+func splitFields(s string, delim byte) []string { return splitFieldsInto(nil, s, delim) }
+
+// splitFieldsInto is splitFields appending to dst[:0] (nil: a new slice).
+func splitFieldsInto(dst []string, s string, delim byte) []string {
 	if strings.IndexByte(s, '"') < 0 {
-		n := strings.Count(s, string(delim)) + 1
-		out := make([]string, 0, n)
+		out := dst[:0]
+		if dst == nil {
+			out = make([]string, 0, strings.Count(s, string(delim))+1)
+		}
 		for {
 			k := strings.IndexByte(s, delim)
 			if k < 0 {
@@ -200,7 +209,7 @@ func splitFields(s string, delim byte) []string {
 			s = s[k+1:]
 		}
 	}
-	var out []string
+	out := dst[:0]
 	var b strings.Builder
 	inQ, quoted := false, false
 	for i := 0; i < len(s); i++ {

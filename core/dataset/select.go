@@ -288,18 +288,25 @@ func selectOne(t *Table, p *Series, a, b int, kind string, lag int, gaps string)
 // "columns: a, b, c", the first 30 when there are more.
 func validColumns(t *Table) string {
 	const most = 30
-	names := make([]string, 0, min(len(t.Series), most))
-	for i := range t.Series {
+	all := t.allSeries
+	if all == nil {
+		all = make([]string, len(t.Series))
+		for i := range t.Series {
+			all[i] = t.Series[i].Name
+		}
+	}
+	names := make([]string, 0, min(len(all), most))
+	for i, n := range all {
 		if i == most {
 			break
 		}
-		names = append(names, strconv.Quote(t.Series[i].Name))
+		names = append(names, strconv.Quote(n))
 	}
 	if len(names) == 0 {
 		return "it has no numeric column"
 	}
 	list := "valid columns: " + strings.Join(names, ", ")
-	if more := len(t.Series) - most; more > 0 {
+	if more := len(all) - most; more > 0 {
 		list += fmt.Sprintf(" and %d more", more)
 	}
 	return list
