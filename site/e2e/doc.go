@@ -8,6 +8,9 @@
 // measures the budgets (page size, load-to-ready time, WebAssembly over
 // native time of the same one-break search). Screenshots at 1280x800 and
 // 390x844 go to $ROOTSHIFT_ARTIFACTS (default: artifacts/ in the repository).
+// TestCorpusInBrowser chooses every file of the reader's corpus
+// (core/dataset/testdata/corpus) with the page's file control and compares the
+// preview with the corpus's expectations.json.
 //
 // The test builds the page with scripts/build-page.sh into a temporary
 // directory, or uses $ROOTSHIFT_PAGE when set. It skips when Chromium is not
