@@ -40,7 +40,7 @@ func (w *work) seasonality(ctx context.Context) (*seasonOut, error) {
 	}
 	out.ran = true
 	out.stage = schema.Stage{Name: "seasonality", Level: w.alpha,
-		Method: "HEGY (Hylleberg, Engle, Granger & Yoo 1990) for quarterly, Beaulieu & Miron (1993) for monthly data, with the seasonal-dummy F test"}
+		Method: "joint F test of the seasonal unit roots by HEGY (Hylleberg, Engle, Granger & Yoo 1990) for quarterly, Beaulieu & Miron (1993) for monthly data (the statistic shown), and an F test of the seasonal dummies for a stable pattern"}
 	rep, err := core.Seasonality(ctx, w.z, S, &core.Config{Level: w.alpha})
 	if err != nil {
 		if ctx.Err() != nil {
