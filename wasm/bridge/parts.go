@@ -44,10 +44,11 @@ type Plan struct {
 	Lengths []int    `json:"lengths"`
 	// EstimateMs is the estimated time of the whole analysis in one engine
 	// instance, in milliseconds (0 without a pilot), and PerSeriesMs that of
-	// each series. The cost model: a pilot run of the first series, with
-	// the replications (sims, the window's search, rate_draws) cut to at most
-	// PilotReps, scaled by (1+reps)/(1+PilotReps) for the replications and by
-	// (T_i/T_1)^2 for the length of series i (the break searches' order).
+	// each series. The cost model: t(k) = b + c k for the first series with
+	// its replications (sims, the window's search, rate_draws) cut to k,
+	// fitted on pilot runs at k = PilotReps/3 and PilotReps (after a
+	// warm-up run), extrapolated to the replications asked for, and scaled
+	// by (T_i/T_1)^2 for the length of series i (the break searches' order).
 	EstimateMs  float64   `json:"estimate_ms"`
 	PerSeriesMs []float64 `json:"per_series_ms,omitempty"`
 	// PilotMs is the time the pilot took.
@@ -57,8 +58,8 @@ type Plan struct {
 	First *Part `json:"first,omitempty"`
 }
 
-// PilotReps is the number of replications the pilot run keeps.
-const PilotReps = 10
+// PilotReps is the largest number of replications a pilot run keeps.
+const PilotReps = 30
 
 // windowReps is the number of replications of the window's restricted
 // search when sims is 0 (decide's default, documented in breaks/decide).
@@ -72,24 +73,25 @@ func placeholder(in dataset.Series) schema.Series {
 	return schema.Series{Name: in.Name, Results: []schema.Result{}}
 }
 
-// pilotSettings cuts the replications of s to at most PilotReps and
-// returns the factor by which the pilot's time is scaled.
-func pilotSettings(s schema.Settings) (schema.Settings, float64) {
+// pilotSettings cuts the replications of s to at most k; it returns the
+// settings and the number of replications asked for (0 when nothing was
+// cut).
+func pilotSettings(s schema.Settings, k int) (schema.Settings, int) {
 	p := s
-	scale := 1.0
 	reps := s.Sims
 	if reps == 0 && s.Window != "" {
 		reps = windowReps
 	}
+	cut := 0
 	if reps > PilotReps {
-		p.Sims = PilotReps
-		scale = float64(1+reps) / float64(1+PilotReps)
+		p.Sims = k
+		cut = reps
 	}
 	if s.RateDraws > PilotReps {
-		p.RateDraws = PilotReps
-		scale = max(scale, float64(1+s.RateDraws)/float64(1+PilotReps))
+		p.RateDraws = k
+		cut = max(cut, s.RateDraws)
 	}
-	return p, scale
+	return p, cut
 }
 
 // PlanAnalysis reads data with settings and returns the envelope of the
@@ -122,25 +124,51 @@ func PlanAnalysis(ctx context.Context, name string, data []byte, settings string
 		if !pilot || plan.Series == 0 {
 			return plan, nil
 		}
-		ps, scale := pilotSettings(firstSettings)
-		start := time.Now()
-		sr, err := battery.AnalyzeSeries(ctx, first, ps, &battery.Options{})
-		if err != nil {
-			return nil, err
+		timed := func(k int) (schema.Series, float64, error) {
+			ps, _ := pilotSettings(firstSettings, k)
+			start := time.Now()
+			sr, err := battery.AnalyzeSeries(ctx, first, ps, &battery.Options{})
+			ms := float64(time.Since(start).Microseconds()) / 1000
+			plan.PilotMs += ms
+			return sr, ms, err
 		}
-		plan.PilotMs = float64(time.Since(start).Microseconds()) / 1000
-		if scale == 1 {
+		var first1 float64 // the first series' estimate
+		if _, reps := pilotSettings(firstSettings, PilotReps); reps == 0 {
+			// Nothing to cut: the pilot is the first series' analysis.
+			sr, ms, err := timed(PilotReps)
+			if err != nil {
+				return nil, err
+			}
 			b, err := json.Marshal(sr)
 			if err != nil {
 				return nil, &callError{kind: KindInternal, err: err}
 			}
 			plan.First = &Part{Index: 0, Series: string(b)}
+			first1 = ms
+		} else {
+			k1, k2 := PilotReps/3, PilotReps
+			var t1, t2 float64
+			var err error
+			if _, _, err = timed(k1); err == nil { // warm-up
+				if _, t2, err = timed(k2); err == nil {
+					_, t1, err = timed(k1)
+				}
+			}
+			if err != nil {
+				return nil, err
+			}
+			c := max(0, (t2-t1)/float64(k2-k1))
+			b := max(0, t1-c*float64(k1))
+			first1 = b + c*float64(reps)
+			if c == 0 { // too fast to tell: scale the larger run
+				first1 = t2 * float64(1+reps) / float64(1+k2)
+			}
 		}
-		t1 := float64(max(1, plan.Lengths[0]))
+		n1 := float64(max(1, plan.Lengths[0]))
 		plan.PerSeriesMs = make([]float64, plan.Series)
 		for i, n := range plan.Lengths {
-			r := float64(max(1, n)) / t1
-			plan.PerSeriesMs[i] = plan.PilotMs * scale * r * r
+			r := float64(max(1, n)) / n1
+			plan.PerSeriesMs[i] = first1 * r * r
 			plan.EstimateMs += plan.PerSeriesMs[i]
 		}
 		return plan, nil

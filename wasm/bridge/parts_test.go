@@ -14,6 +14,7 @@ import (
 	"fmt"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/rootshift/rootshift/breaks/battery"
 )
@@ -163,17 +164,29 @@ func TestAssemblePartial(t *testing.T) {
 func TestPlanEstimate(t *testing.T) {
 	data := battery.DemoCSV()
 	var p Plan
-	r := decode(t, PlanAnalysis(context.Background(), "demo.csv", data, `{"tests":["adf","za"],"sims":999}`, true))
+	const settings = `{"tests":["adf","za"],"sims":199}`
+	r := decode(t, PlanAnalysis(context.Background(), "demo.csv", data, settings, true))
 	if err := json.Unmarshal(r.Result, &p); err != nil || !r.OK {
 		t.Fatalf("%v %+v", err, r.Error)
 	}
-	if p.Series != 7 || len(p.Lengths) != 7 || p.Lengths[0] != 240 || p.First != nil {
-		t.Errorf("plan: %+v", p)
+	if p.Series != 7 || len(p.Lengths) != 7 || p.Lengths[0] != 240 || p.First != nil || p.PilotMs <= 0 || len(p.PerSeriesMs) != 7 {
+		t.Fatalf("plan: %+v", p)
 	}
-	// Seven series of equal length: seven times the first one's estimate,
-	// which is the pilot's time times (1+999)/(1+PilotReps).
-	if want := 7 * p.PilotMs * 1000 / (1 + PilotReps); p.EstimateMs < 0.999*want || p.EstimateMs > 1.001*want || p.PilotMs <= 0 {
-		t.Errorf("estimate %.1f ms from a pilot of %.1f ms, want %.1f ms", p.EstimateMs, p.PilotMs, want)
+	// Seven series of equal length: seven times the first one's estimate.
+	if want := 7 * p.PerSeriesMs[0]; p.EstimateMs < 0.999*want || p.EstimateMs > 1.001*want || p.EstimateMs <= 0 {
+		t.Errorf("estimate %.1f ms, want 7 x %.1f ms", p.EstimateMs, p.PerSeriesMs[0])
+	}
+	// The estimate against the first series' actual time (loose: the
+	// machine may be busy).
+	one := `{"tests":["adf","za"],"sims":199,"columns":["freight_volume"]}`
+	start := time.Now()
+	if r := decode(t, NewSession().Analyze(context.Background(), "demo.csv", data, one, nil)); !r.OK {
+		t.Fatal(r.Error)
+	}
+	actual := float64(time.Since(start).Microseconds()) / 1000
+	t.Logf("first series: estimated %.1f ms (pilot %.1f ms), took %.1f ms", p.PerSeriesMs[0], p.PilotMs, actual)
+	if ratio := p.PerSeriesMs[0] / actual; ratio < 0.2 || ratio > 5 {
+		t.Errorf("estimate %.1f ms for a series that took %.1f ms", p.PerSeriesMs[0], actual)
 	}
 	// Without replications to cut, the pilot is the first series' analysis.
 	r = decode(t, PlanAnalysis(context.Background(), "demo.csv", data, `{"tests":["adf"]}`, true))
