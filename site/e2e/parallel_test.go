@@ -59,6 +59,11 @@ func TestParallelPage(t *testing.T) {
 	var workers int
 	b.eval(t, `JSON.stringify(window.rootshift.workers)`, &workers)
 	t.Logf("workers: %d (navigator.hardwareConcurrency, at most 8)", workers)
+	var shared bool
+	b.eval(t, `JSON.stringify(window.rootshift.timings.sharedModule)`, &shared)
+	if !shared {
+		t.Errorf("the worker did not receive the page's compiled WebAssembly.Module from a file:// page")
+	}
 
 	// 1. The same document from 1 and 3 workers, seeded simulations included.
 	var same struct {

@@ -60,7 +60,14 @@
       this.worker.postMessage({ type: 'init', module: this.wasm.module, bytes: this.wasm.bytes });
     }
     onMessage(m) {
-      if (m.type === 'ready') { this.version = m.version; this.failures = 0; this.readyResolve(m.version); return; }
+      if (m.type === 'ready') {
+        this.version = m.version;
+        this.failures = 0;
+        // Whether the worker got the page's compiled module (not the bytes to compile again).
+        timings.sharedModule = m.shared;
+        this.readyResolve(m.version);
+        return;
+      }
       if (m.type === 'fatal') { this.fail(m.message); return; }
       const p = this.pending.get(m.id);
       if (!p) return;

@@ -23,7 +23,7 @@ async function init(msg) {
     }, reject);
   });
   engine = self.rootshiftEngine;
-  postMessage({ type: 'ready', version: engine.version });
+  postMessage({ type: 'ready', version: engine.version, shared: msg.module instanceof WebAssembly.Module });
 }
 
 function call(msg) {
