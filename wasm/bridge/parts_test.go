@@ -200,3 +200,28 @@ func TestPlanEstimate(t *testing.T) {
 		t.Errorf("the pilot's part differs from the analysis of series 0: %v", err)
 	}
 }
+
+// FuzzAssemble: any parts text gives a well-formed envelope, never a
+// recovered panic.
+func FuzzAssemble(f *testing.F) {
+	const data = "t,a,b\n1,1,2\n2,3,1\n3,2,4\n4,5,3\n5,4,6\n6,6,5\n7,8,7\n8,7,9\n9,9,8\n10,11,10\n"
+	const settings = `{"tests":["kpss"]}`
+	f.Add(`[]`, true)
+	f.Add(`[{"index":0,"series":"{\"name\":\"a\",\"results\":[]}"}]`, true)
+	f.Add(`[{"index":1,"series":"{}"},{"index":0,"series":"{\"n\":3}"}]`, false)
+	f.Add(`[{"index":7,"series":"null"}]`, false)
+	f.Add(`{`, false)
+	f.Fuzz(func(t *testing.T, parts string, partial bool) {
+		out := NewSession().Assemble("x.csv", []byte(data), settings, parts, partial)
+		var r Reply
+		if err := json.Unmarshal([]byte(out), &r); err != nil {
+			t.Fatalf("not JSON: %v", err)
+		}
+		if r.OK == (r.Error != nil) {
+			t.Fatalf("bad envelope %s", out)
+		}
+		if r.Error != nil && strings.Contains(r.Error.Message, "please report") {
+			t.Fatalf("recovered panic for %q: %s", parts, r.Error.Message)
+		}
+	})
+}
