@@ -172,35 +172,47 @@
     const single = () => engine.call('analyze', { name: nm, bytes, settings: st }, onProgress, [bytes.buffer]);
     if (want === 1 && !o.confirm) return single();
     const plan = await engine.call('plan', { name: nm, bytes: bytes.slice(), settings: st, pilot: !!o.confirm });
-    const n = plan.series;
-    const engines = n > 1 ? enginesFor(Math.min(want, n)) : [engine];
+    // Units of work: series, or each picked test on each series (bridge.Units).
+    const n = plan.series, m = plan.units, total = n * m;
+    const engines = total > 1 ? enginesFor(Math.min(want, total)) : [engine];
     if (o.confirm && !(await o.confirm(plan, engines.length))) throw new EngineError('declined', 'not started');
     if (engines.length === 1) return single();
-    const parts = plan.first ? [plan.first] : [];
+    const parts = plan.first ? plan.first.slice() : [];
     const queue = [];
-    const chunk = Math.max(1, Math.floor(n / (4 * engines.length)));
-    for (let i = parts.length; i < n; i += chunk) {
-      const idx = [];
-      for (let j = i; j < Math.min(n, i + chunk); j++) idx.push(j);
-      queue.push(idx);
+    const chunk = Math.max(1, Math.floor(total / (8 * engines.length)));
+    for (let u = parts.length; u < total; u += chunk) {
+      const units = [];
+      for (let v = u; v < Math.min(total, u + chunk); v++) units.push(v);
+      queue.push(units);
     }
-    let done = parts.length, overall = 0;
+    const unitsDone = new Array(n).fill(0);
+    let done = parts.length, seriesDone = 0, overall = 0;
+    for (const p of parts) if (++unitsDone[p.index] === m) seriesDone++;
     const within = engines.map(() => 0);
+    const current = engines.map(() => ({ units: [], pos: 0 }));
     const report = (p, k) => {
-      if (p.stage === 'series') { done++; within[k] = 0; }
-      else if (p.stage === 'simulation' && p.total) within[k] = Math.max(within[k], Math.min(0.95, p.done / p.total));
-      overall = Math.max(overall, Math.min(1, (done + within.reduce((a, b) => a + b, 0)) / n));
+      let finished = false; // a whole series is done
+      if (p.stage === 'series') {
+        const u = current[k].units[current[k].pos++];
+        done++;
+        within[k] = 0;
+        if (u !== undefined && ++unitsDone[Math.floor(u / m)] === m) { seriesDone++; finished = true; }
+      } else if (p.stage === 'simulation' && p.total) within[k] = Math.max(within[k], Math.min(0.95, p.done / p.total));
+      overall = Math.max(overall, Math.min(1, (done + within.reduce((a, b) => a + b, 0)) / total));
       if (onProgress) {
         const q = Object.assign({}, p, { overall, workers: engines.length });
-        if (p.stage === 'series') Object.assign(q, { done, total: n });
+        // Stage "series" counts finished series; one test done on a series
+        // whose other tests still run is reported as stage "test".
+        if (p.stage === 'series') Object.assign(q, { stage: finished ? 'series' : 'test', done: seriesDone, total: n });
         onProgress(q);
       }
     };
     const work = async (e, k) => {
       while (queue.length) {
-        const indices = queue.shift();
+        const units = queue.shift();
+        current[k] = { units, pos: 0 };
         const copy = bytes.slice();
-        const got = await e.call('part', { name: nm, bytes: copy, settings: st, indices }, (p) => report(p, k), [copy.buffer]);
+        const got = await e.call('part', { name: nm, bytes: copy, settings: st, units }, (p) => report(p, k), [copy.buffer]);
         parts.push(...got);
       }
     };
@@ -210,13 +222,13 @@
       queue.length = 0;
       for (const e of engines) if (e.busy) e.cancel();
       if (err.kind === 'cancelled' && parts.length) {
-        err.done = parts.length;
+        err.done = seriesDone;
         err.total = n;
         err.partial = () => engine.call('assemble', { name: nm, bytes: bytes.slice(), settings: st, parts: parts.slice(), partial: true });
       }
       throw err;
     }
-    parts.sort((a, b) => a.index - b.index);
+    parts.sort((a, b) => a.index - b.index || a.test - b.test);
     return engine.call('assemble', { name: nm, bytes, settings: st, parts, partial: false }, null, [bytes.buffer]);
   }
 
@@ -522,7 +534,7 @@
   };
   function confirmLong(plan, workers) {
     const per = plan.per_series_ms || [];
-    const secs = Math.max(plan.estimate_ms / workers, ...per) / 1000;
+    const secs = Math.max(plan.estimate_ms / workers, ...per.map((x) => x / plan.units)) / 1000;
     $('confirm-box').dataset.estimate = String(secs);
     if (!(secs > longRun)) { status('Analysing…'); return true; }
     const s = plan.series === 1 ? '1 series' : plan.series + ' series';

@@ -39,7 +39,7 @@ function call(msg) {
     case 'plan':
       return engine.plan(a.name, a.bytes, a.settings, !!a.pilot);
     case 'part':
-      return engine.part(a.name, a.bytes, a.settings, JSON.stringify(a.indices), (p) => {
+      return engine.part(a.name, a.bytes, a.settings, JSON.stringify(a.units), (p) => {
         postMessage({ type: 'progress', id: msg.id, progress: JSON.parse(p) });
       });
     case 'assemble':

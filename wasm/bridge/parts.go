@@ -25,13 +25,47 @@ import (
 // rand.NewPCG(seed, r)), so that the document is the same for any number of
 // workers and any distribution of the series.
 
-// Part is the analysis of one series: Index counts the analysed series in
-// document order from 0 (series that fail before testing are not counted)
-// and Series is the schema v2 series object as JSON text, kept opaque by
-// the page.
+// Part is the analysis of one unit of work: series Index (counting the
+// analysed series in document order from 0; series that fail before
+// testing are not counted) or, when the tests are picked without the
+// verdict (see Units), the Test-th of those tests on it. Series is the
+// schema v2 series object as JSON text, kept opaque by the page.
 type Part struct {
 	Index  int    `json:"index"`
+	Test   int    `json:"test"`
 	Series string `json:"series"`
+}
+
+// Units returns the number of units of work per series: the number of
+// tests when they are picked without the verdict and without a known break
+// date (each test's results depend on nothing but the series and the
+// settings, and AnalyzeSeries appends them in the order of the tests), and
+// 1 otherwise (the verdict's stages depend on each other). Unit u is test
+// u mod Units of series u / Units.
+func Units(s schema.Settings) int {
+	if len(s.Tests) > 1 && !s.Verdict && s.BreakDate == "" {
+		return len(s.Tests)
+	}
+	return 1
+}
+
+// analyzeUnit analyses test j of series in (all tests when m is 1).
+func analyzeUnit(ctx context.Context, in dataset.Series, s schema.Settings, m, j int, opt *battery.Options) (schema.Series, error) {
+	if m > 1 {
+		s.Tests = []string{s.Tests[j]}
+	}
+	return battery.AnalyzeSeries(ctx, in, s, opt)
+}
+
+// mergeUnits is the series that AnalyzeSeries gives with every test: the
+// first unit with the results and errors of the others appended in order.
+func mergeUnits(units []schema.Series) schema.Series {
+	sr := units[0]
+	for _, u := range units[1:] {
+		sr.Results = append(sr.Results, u.Results...)
+		sr.Errors = append(sr.Errors, u.Errors...)
+	}
+	return sr
 }
 
 // Plan describes an analysis before it runs.
@@ -39,6 +73,9 @@ type Plan struct {
 	// Series is the number of series to analyse: the parts' indices are
 	// 0..Series-1.
 	Series int `json:"series"`
+	// Units is the number of units of work per series (see Units): the
+	// page hands out units 0..Series*Units-1.
+	Units int `json:"units"`
 	// Names and Lengths are those series' names and numbers of observations.
 	Names   []string `json:"names"`
 	Lengths []int    `json:"lengths"`
@@ -53,9 +90,10 @@ type Plan struct {
 	PerSeriesMs []float64 `json:"per_series_ms,omitempty"`
 	// PilotMs is the time the pilot took.
 	PilotMs float64 `json:"pilot_ms"`
-	// First is the first series' part when the pilot was its full analysis
-	// (nothing cut), for the page to use instead of analysing it again.
-	First *Part `json:"first,omitempty"`
+	// First is the first series' parts (units 0..Units-1) when the pilot
+	// was its full analysis (nothing cut), for the page to use instead of
+	// analysing it again.
+	First []Part `json:"first,omitempty"`
 }
 
 // PilotReps is the largest number of replications a pilot run keeps.
@@ -106,7 +144,7 @@ func PlanAnalysis(ctx context.Context, name string, data []byte, settings string
 		if name == "" {
 			name = "pasted"
 		}
-		plan := Plan{Names: []string{}, Lengths: []int{}}
+		plan := Plan{Names: []string{}, Lengths: []int{}, Units: Units(st)}
 		var first dataset.Series
 		var firstSettings schema.Settings
 		opt := &battery.Options{Series: func(_ context.Context, in dataset.Series, s schema.Settings) (schema.Series, error) {
@@ -135,16 +173,20 @@ func PlanAnalysis(ctx context.Context, name string, data []byte, settings string
 		var first1 float64 // the first series' estimate
 		if _, reps := pilotSettings(firstSettings, PilotReps); reps == 0 {
 			// Nothing to cut: the pilot is the first series' analysis.
-			sr, ms, err := timed(PilotReps)
-			if err != nil {
-				return nil, err
+			start := time.Now()
+			for j := 0; j < plan.Units; j++ {
+				sr, err := analyzeUnit(ctx, first, firstSettings, plan.Units, j, &battery.Options{})
+				if err != nil {
+					return nil, err
+				}
+				b, err := json.Marshal(sr)
+				if err != nil {
+					return nil, &callError{kind: KindInternal, err: err}
+				}
+				plan.First = append(plan.First, Part{Index: 0, Test: j, Series: string(b)})
 			}
-			b, err := json.Marshal(sr)
-			if err != nil {
-				return nil, &callError{kind: KindInternal, err: err}
-			}
-			plan.First = &Part{Index: 0, Series: string(b)}
-			first1 = ms
+			first1 = float64(time.Since(start).Microseconds()) / 1000
+			plan.PilotMs = first1
 		} else {
 			k1, k2 := PilotReps/3, PilotReps
 			var t1, t2 float64
@@ -175,12 +217,12 @@ func PlanAnalysis(ctx context.Context, name string, data []byte, settings string
 	})
 }
 
-// AnalyzePart analyses the series of the given indices (see Part) of the
-// analysis of data with settings and returns the envelope of their parts,
-// in the order of the indices. progress (may be nil) receives the
-// progress of those series only: stage "series" once each is done, with
-// Done counting them and Total the number of indices.
-func AnalyzePart(ctx context.Context, name string, data []byte, settings string, indices []int, progress func(battery.Progress)) string {
+// AnalyzePart analyses the given units of work (see Units: series
+// u / Units, test u mod Units) of the analysis of data with settings and
+// returns the envelope of their parts, in the order of the units. progress
+// (may be nil) receives the progress of those units only: stage "series"
+// once each is done, with Done counting them and Total the number of units.
+func AnalyzePart(ctx context.Context, name string, data []byte, settings string, units []int, progress func(battery.Progress)) string {
 	return Call(func() (any, error) {
 		st, err := DecodeSettings(settings)
 		if err != nil {
@@ -189,60 +231,70 @@ func AnalyzePart(ctx context.Context, name string, data []byte, settings string,
 		if name == "" {
 			name = "pasted"
 		}
-		want := map[int]int{}
+		m := Units(st)
+		want := map[int][]int{} // series -> positions in units
 		last := -1
-		for k, i := range indices {
-			if i < 0 {
-				return nil, usageErr("part: index %d is negative", i)
+		seen := map[int]bool{}
+		for k, u := range units {
+			if u < 0 {
+				return nil, usageErr("part: unit %d is negative", u)
 			}
-			if _, dup := want[i]; dup {
-				return nil, usageErr("part: index %d given twice", i)
+			if seen[u] {
+				return nil, usageErr("part: unit %d given twice", u)
 			}
-			want[i] = k
-			last = max(last, i)
+			seen[u] = true
+			want[u/m] = append(want[u/m], k)
+			last = max(last, u/m)
 		}
-		parts := make([]Part, len(indices))
+		parts := make([]Part, len(units))
 		next, done := 0, 0
 		opt := &battery.Options{Series: func(ctx context.Context, in dataset.Series, s schema.Settings) (schema.Series, error) {
 			i := next
 			next++
-			k, ok := want[i]
+			ks, ok := want[i]
 			if !ok {
 				if i > last {
 					return schema.Series{}, errPart // the rest belongs to other instances
 				}
 				return placeholder(in), nil
 			}
-			sr, err := battery.AnalyzeSeries(ctx, in, s, &battery.Options{Progress: progress})
-			if err != nil {
-				return sr, err
+			for _, k := range ks {
+				j := units[k] % m
+				sr, err := analyzeUnit(ctx, in, s, m, j, &battery.Options{Progress: progress})
+				if err != nil {
+					return sr, err
+				}
+				b, err := json.Marshal(sr)
+				if err != nil {
+					return sr, &callError{kind: KindInternal, err: err}
+				}
+				parts[k] = Part{Index: i, Test: j, Series: string(b)}
+				done++
+				if progress != nil {
+					var test string
+					if m > 1 {
+						test = s.Tests[j]
+					}
+					progress(battery.Progress{Stage: "series", Series: in.Name, Test: test, Done: done, Total: len(units)})
+				}
 			}
-			b, err := json.Marshal(sr)
-			if err != nil {
-				return sr, &callError{kind: KindInternal, err: err}
-			}
-			parts[k] = Part{Index: i, Series: string(b)}
-			done++
-			if progress != nil {
-				progress(battery.Progress{Stage: "series", Series: in.Name, Done: done, Total: len(indices)})
-			}
-			return sr, nil
+			return placeholder(in), nil
 		}}
 		if _, _, err := battery.AnalyzeText(ctx, name, data, st, opt); err != nil && !errors.Is(err, errPart) {
 			return nil, err
 		}
-		if done != len(indices) {
-			return nil, usageErr("part: %d of the indices are beyond the %d series to analyse", len(indices)-done, next)
+		if done != len(units) {
+			return nil, usageErr("part: %d of the units are beyond the %d to do", len(units)-done, next*m)
 		}
 		return parts, nil
 	})
 }
 
-// Assemble puts parts (the JSON array of the parts of every analysed
-// series) back into the document of the analysis of data with settings,
-// keeps it for Export and Plots, and returns the envelope of the document,
-// the same text as Analyze. With partial (a cancelled run), series without
-// a part are reported as not analysed; without it a missing part is an
+// Assemble puts parts (the JSON array of the parts of every unit of work)
+// back into the document of the analysis of data with settings, keeps it
+// for Export and Plots, and returns the envelope of the document, the same
+// text as Analyze. With partial (a cancelled run), series with a missing
+// part are reported as not analysed; without it a missing part is an
 // internal error.
 func (s *Session) Assemble(name string, data []byte, settings, parts string, partial bool) string {
 	return Call(func() (any, error) {
@@ -257,36 +309,43 @@ func (s *Session) Assemble(name string, data []byte, settings, parts string, par
 		if err := json.Unmarshal([]byte(parts), &list); err != nil {
 			return nil, usageErr("assemble: parts: %v", err)
 		}
-		byIndex := map[int]string{}
+		m := Units(st)
+		type key struct{ i, j int }
+		byUnit := map[key]string{}
 		for _, p := range list {
-			byIndex[p.Index] = p.Series
+			if p.Test < 0 || p.Test >= m {
+				return nil, usageErr("assemble: part %d has test %d, want 0..%d", p.Index, p.Test, m-1)
+			}
+			byUnit[key{p.Index, p.Test}] = p.Series
 		}
 		next, used := 0, 0
 		opt := &battery.Options{Series: func(_ context.Context, in dataset.Series, s schema.Settings) (schema.Series, error) {
 			i := next
 			next++
-			text, ok := byIndex[i]
-			if !ok {
-				if partial {
-					sr := battery.FailedSeries(in.Name, in.Frequency, s, errors.New("not analysed: the analysis was cancelled before this series was done"))
-					sr.Notes = battery.SchemaNotes(in.Notes)
-					return sr, nil
+			units := make([]schema.Series, m)
+			for j := range units {
+				text, ok := byUnit[key{i, j}]
+				if !ok {
+					if partial {
+						sr := battery.FailedSeries(in.Name, in.Frequency, s, errors.New("not analysed: the analysis was cancelled before this series was done"))
+						sr.Notes = battery.SchemaNotes(in.Notes)
+						return sr, nil
+					}
+					return schema.Series{}, &callError{kind: KindInternal, err: fmt.Errorf("assemble: no part for series %d (%s), test %d", i, in.Name, j)}
 				}
-				return schema.Series{}, &callError{kind: KindInternal, err: fmt.Errorf("assemble: no part for series %d (%s)", i, in.Name)}
+				if err := json.Unmarshal([]byte(text), &units[j]); err != nil {
+					return schema.Series{}, &callError{kind: KindInternal, err: fmt.Errorf("assemble: part %d (%s): %v", i, in.Name, err)}
+				}
 			}
-			used++
-			var sr schema.Series
-			if err := json.Unmarshal([]byte(text), &sr); err != nil {
-				return sr, &callError{kind: KindInternal, err: fmt.Errorf("assemble: part %d (%s): %v", i, in.Name, err)}
-			}
-			return sr, nil
+			used += m
+			return mergeUnits(units), nil
 		}}
 		doc, inputs, err := battery.AnalyzeText(context.Background(), name, data, st, opt)
 		if err != nil {
 			return nil, err
 		}
-		if used != len(byIndex) {
-			return nil, usageErr("assemble: %d parts for %d series", len(byIndex), next)
+		if n := len(byUnit); n > used && !(partial && n <= next*m) {
+			return nil, usageErr("assemble: %d parts for %d series of %d units", n, next, m)
 		}
 		return s.keep(doc, inputs, name)
 	})

@@ -32,8 +32,11 @@ func spread(t *testing.T, name string, data []byte, settings string, w, chunk in
 	if err := json.Unmarshal(r.Result, &plan); err != nil {
 		t.Fatal(err)
 	}
+	if plan.Units < 1 {
+		t.Fatalf("plan %s: %d units per series", settings, plan.Units)
+	}
 	own := make([][]int, w)
-	for i := 0; i < plan.Series; i++ {
+	for i := 0; i < plan.Series*plan.Units; i++ {
 		k := (i / chunk) % w
 		own[k] = append(own[k], i)
 	}
@@ -56,14 +59,14 @@ func spread(t *testing.T, name string, data []byte, settings string, w, chunk in
 			t.Fatal(err)
 		}
 		for j, p := range ps {
-			if p.Index != own[k][j] {
-				t.Fatalf("part %d has index %d, want %d", j, p.Index, own[k][j])
+			if u := own[k][j]; p.Index != u/plan.Units || p.Test != u%plan.Units {
+				t.Fatalf("part %d is series %d test %d, want unit %d", j, p.Index, p.Test, u)
 			}
 		}
 		parts = append(parts, ps...)
 	}
-	if progress != plan.Series {
-		t.Errorf("%d series done by progress, %d planned", progress, plan.Series)
+	if progress != plan.Series*plan.Units {
+		t.Errorf("%d units done by progress, %d planned", progress, plan.Series*plan.Units)
 	}
 	b, err := json.Marshal(parts)
 	if err != nil {
@@ -102,8 +105,14 @@ func TestPartsGiveTheSameDocument(t *testing.T) {
 		data     []byte
 		settings string
 	}{
-		// Seeded simulated p-values on the invented demo data.
-		{"demo.csv", battery.DemoCSV(), `{"tests":["adf","za"],"sims":19,"seed":7}`},
+		// Seeded simulated p-values on the invented demo data, one test per unit.
+		{"demo.csv", battery.DemoCSV(), `{"tests":["adf","za","kpss"],"sims":19,"seed":7}`},
+		// Tests picked with the verdict: one series per unit.
+		{"demo.csv", battery.DemoCSV(), `{"tests":["adf","kpss"],"verdict":true,"columns":["jobless_rate","housing_index"]}`},
+		// Tests that fail on short series (errors between results).
+		{"short.csv", []byte("t,a,b\n1,8,5\n2,5,10\n3,6,2\n4,10,7\n5,6,12\n6,14,4\n7,14,9\n8,16,1\n"), `{"tests":["adf","ls2","kpss","bp"]}`},
+		// A known break date: one series per unit.
+		{"demo.csv", battery.DemoCSV(), `{"tests":["adf","p89"],"break_date":"2009-02","columns":["jobless_rate","credit_spread"]}`},
 		// The default battery and the verdict.
 		{"demo.csv", battery.DemoCSV(), `{"columns":["jobless_rate","freight_volume","credit_spread"]}`},
 		// Open data, a sample range and a transform (testdata/us-employment.csv, vega-datasets 3.2.1).
@@ -118,7 +127,7 @@ func TestPartsGiveTheSameDocument(t *testing.T) {
 		if !one.OK {
 			t.Fatalf("%s %s: %+v", c.name, c.settings, one.Error)
 		}
-		for _, wc := range [][2]int{{1, 1}, {2, 1}, {3, 1}, {2, 2}} {
+		for _, wc := range [][2]int{{1, 1}, {2, 1}, {3, 1}, {2, 2}, {5, 1}} {
 			got, n := spread(t, c.name, c.data, c.settings, wc[0], wc[1])
 			if got != string(one.Result) {
 				t.Errorf("%s %s: %d workers (chunks of %d, %d series): the document differs from one instance's\n got %.400s\nwant %.400s",
@@ -156,6 +165,20 @@ func TestAssemblePartial(t *testing.T) {
 	if len(doc.Series) != 3 || len(doc.Series[1].Results) != 1 || len(doc.Series[0].Errors) != 1 ||
 		!strings.Contains(doc.Series[0].Errors[0].Message, "cancelled") || len(doc.Series[2].Errors) != 1 {
 		t.Errorf("partial document: %s", a.Result)
+	}
+	// Units of tests: a series is kept only with all its tests.
+	const two = `{"tests":["adf","kpss"],"columns":["freight_volume","power_demand"]}`
+	r = decode(t, AnalyzePart(context.Background(), "demo.csv", data, two, []int{0, 1, 3}, nil))
+	if !r.OK {
+		t.Fatal(r.Error)
+	}
+	a = decode(t, s.Assemble("demo.csv", data, two, string(r.Result), true))
+	doc.Series = nil
+	if err := json.Unmarshal(a.Result, &doc); err != nil {
+		t.Fatal(err)
+	}
+	if len(doc.Series) != 2 || len(doc.Series[0].Results) != 2 || len(doc.Series[1].Results) != 0 || len(doc.Series[1].Errors) != 1 {
+		t.Errorf("partial document with test units: %s", a.Result)
 	}
 	wantError(t, AnalyzePart(context.Background(), "demo.csv", data, settings, []int{3}, nil), KindUsage, "beyond")
 	wantError(t, AnalyzePart(context.Background(), "demo.csv", data, settings, []int{1, 1}, nil), KindUsage, "twice")
@@ -196,7 +219,7 @@ func TestPlanEstimate(t *testing.T) {
 	}
 	part := decode(t, AnalyzePart(context.Background(), "demo.csv", data, `{"tests":["adf"]}`, []int{0}, nil))
 	var ps []Part
-	if err := json.Unmarshal(part.Result, &ps); err != nil || len(ps) != 1 || ps[0].Series != p.First.Series {
+	if err := json.Unmarshal(part.Result, &ps); err != nil || len(ps) != 1 || len(p.First) != 1 || ps[0].Series != p.First[0].Series {
 		t.Errorf("the pilot's part differs from the analysis of series 0: %v", err)
 	}
 }
