@@ -12,7 +12,9 @@ import (
 	"encoding/json"
 	"fmt"
 	"net/url"
+	"os"
 	"os/exec"
+	"path/filepath"
 	"strings"
 	"testing"
 	"time"
@@ -220,6 +222,18 @@ func TestLongRunAsked(t *testing.T) {
 	t.Logf("asked: %q (estimate %s s)", asked.Text, asked.Estimate)
 	if !strings.Contains(asked.Text, "will take about") || asked.Progress {
 		t.Errorf("question %q (progress shown: %v)", asked.Text, asked.Progress)
+	}
+	if err := chromedp.Do(b.ctx, chromedp.Evaluate[chromedp.Void](`document.getElementById('confirm-box').scrollIntoView({block: 'center'})`)); err != nil {
+		t.Fatal(err)
+	}
+	if png, err := chromedp.Run(b.ctx, chromedp.CaptureScreenshot()); err == nil {
+		p := filepath.Join(artifactsDir(t), "page-1280x800-long-run.png")
+		if err := os.WriteFile(p, png, 0o644); err != nil {
+			t.Error(err)
+		}
+		t.Logf("screenshot %s (%d bytes)", p, len(png))
+	} else {
+		t.Errorf("screenshot: %v", err)
 	}
 	var st string
 	err = chromedp.Do(b.ctx, chromedp.Click(chromedp.ID("confirm-stop")), chromedp.WaitNotVisible(chromedp.ID("confirm-box")),

@@ -532,13 +532,14 @@
     const h = Math.floor(m / 60);
     return h + ' h' + (m % 60 ? ' ' + (m % 60) + ' min' : '');
   };
-  function confirmLong(plan, workers) {
+  function confirmLong(plan, workers, settings) {
     const per = plan.per_series_ms || [];
     const secs = Math.max(plan.estimate_ms / workers, ...per.map((x) => x / plan.units)) / 1000;
     $('confirm-box').dataset.estimate = String(secs);
     if (!(secs > longRun)) { status('Analysing…'); return true; }
-    const s = plan.series === 1 ? '1 series' : plan.series + ' series';
-    $('confirm-text').textContent = `This analysis (${s}, up to ${Math.max(0, ...plan.lengths)} observations) will take about ${duration(secs)} ` +
+    const what = [plan.series === 1 ? '1 series' : plan.series + ' series', `up to ${Math.max(0, ...plan.lengths)} observations`];
+    if (settings.sims) what.push(`${settings.sims.toLocaleString('en')} replications`);
+    $('confirm-text').textContent = `This analysis (${what.join(', ')}) will take about ${duration(secs)} ` +
       `on this computer with ${workers} ${workers === 1 ? 'worker' : 'parallel workers'} (estimated from a short trial run). ` +
       'Fewer replications, series or tests make it shorter. Start it?';
     $('progress-box').hidden = true;
@@ -596,7 +597,7 @@
         const head = p.workers > 1 ? `${ov.done} of ${ov.n} series done (${p.workers} workers)` : `Series ${Math.min(ov.done + 1, ov.n)} of ${ov.n}`;
         $('progress-text').textContent = head + (p.stage === 'series' ? '' : ': ' + progressText(p)) + left;
         $('progress').dataset.overall = String(ov.frac);
-      }, { confirm: confirmLong });
+      }, { confirm: (plan, workers) => confirmLong(plan, workers, s) });
       state.lastDoc = doc;
       await renderFindings(doc);
       status(`Done in ${((performance.now() - started) / 1000).toFixed(1)} s.`);
