@@ -46,6 +46,13 @@ func argInt(args []safejs.Value, i int) (int, error) {
 	return args[i].Int()
 }
 
+func argBool(args []safejs.Value, i int) (bool, error) {
+	if i >= len(args) || args[i].IsUndefined() || args[i].IsNull() {
+		return false, nil
+	}
+	return args[i].Bool()
+}
+
 // argBytes copies a Uint8Array argument into Go.
 func argBytes(args []safejs.Value, i int) ([]byte, error) {
 	if i >= len(args) || args[i].IsUndefined() || args[i].IsNull() {
@@ -85,6 +92,19 @@ func progressTo(fn safejs.Value) func(battery.Progress) {
 	}
 }
 
+// argsInput reads the arguments every analysis call starts with: the
+// input's name, its bytes and the settings' JSON text.
+func argsInput(args []safejs.Value) (name string, data []byte, settings string, err error) {
+	if name, err = argString(args, 0); err != nil {
+		return
+	}
+	if data, err = argBytes(args, 1); err != nil {
+		return
+	}
+	settings, err = argString(args, 2)
+	return
+}
+
 func main() {
 	session := bridge.NewSession()
 	exports := map[string]handler{
@@ -106,6 +126,51 @@ func main() {
 				progress = progressTo(args[3])
 			}
 			return session.Analyze(context.Background(), name, data, settings, progress), nil
+		},
+		"plan": func(args []safejs.Value) (string, error) {
+			name, data, settings, err := argsInput(args)
+			if err != nil {
+				return "", err
+			}
+			pilot, err := argBool(args, 3)
+			if err != nil {
+				return "", err
+			}
+			return bridge.PlanAnalysis(context.Background(), name, data, settings, pilot), nil
+		},
+		"part": func(args []safejs.Value) (string, error) {
+			name, data, settings, err := argsInput(args)
+			if err != nil {
+				return "", err
+			}
+			list, err := argString(args, 3)
+			if err != nil {
+				return "", err
+			}
+			var indices []int
+			if err := json.Unmarshal([]byte(list), &indices); err != nil {
+				return "", fmt.Errorf("argument 4 must be a JSON array of series indices: %v", err)
+			}
+			var progress func(battery.Progress)
+			if len(args) > 4 {
+				progress = progressTo(args[4])
+			}
+			return bridge.AnalyzePart(context.Background(), name, data, settings, indices, progress), nil
+		},
+		"assemble": func(args []safejs.Value) (string, error) {
+			name, data, settings, err := argsInput(args)
+			if err != nil {
+				return "", err
+			}
+			parts, err := argString(args, 3)
+			if err != nil {
+				return "", err
+			}
+			partial, err := argBool(args, 4)
+			if err != nil {
+				return "", err
+			}
+			return session.Assemble(name, data, settings, parts, partial), nil
 		},
 		"inspect": func(args []safejs.Value) (string, error) {
 			name, err := argString(args, 0)

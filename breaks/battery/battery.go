@@ -36,6 +36,13 @@ type Options struct {
 	// Cache, if set, reuses simulated null distributions across series with
 	// the same test, length and settings (batch mode).
 	Cache *DistCache
+	// Series, if set, is called by Analyze (and AnalyzeText) in place of
+	// AnalyzeSeries(ctx, in, s, opt) for every prepared series, in document
+	// order, with the settings that AnalyzeSeries would get. The page uses
+	// it to spread the series of one document over several engine
+	// instances and to put their results back in place; it must return
+	// what AnalyzeSeries returns for the document to be the same.
+	Series func(ctx context.Context, in dataset.Series, s schema.Settings) (schema.Series, error)
 }
 
 // AnalyzeText parses data (CSV, TSV, pasted cells; .xlsx when name ends in
@@ -106,7 +113,13 @@ func Analyze(ctx context.Context, t *dataset.Table, s schema.Settings, opt *Opti
 		}
 		if p, ok := byName[col.Name]; ok {
 			seen[col.Name] = true
-			sr, err := AnalyzeSeries(ctx, p, s, opt)
+			var sr schema.Series
+			var err error
+			if opt.Series != nil {
+				sr, err = opt.Series(ctx, p, s)
+			} else {
+				sr, err = AnalyzeSeries(ctx, p, s, opt)
+			}
 			if err != nil {
 				return nil, nil, err
 			}

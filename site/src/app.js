@@ -60,7 +60,14 @@
       this.worker.postMessage({ type: 'init', module: this.wasm.module, bytes: this.wasm.bytes });
     }
     onMessage(m) {
-      if (m.type === 'ready') { this.version = m.version; this.failures = 0; this.readyResolve(m.version); return; }
+      if (m.type === 'ready') {
+        this.version = m.version;
+        this.failures = 0;
+        // Whether the worker got the page's compiled module (not the bytes to compile again).
+        timings.sharedModule = m.shared;
+        this.readyResolve(m.version);
+        return;
+      }
       if (m.type === 'fatal') { this.fail(m.message); return; }
       const p = this.pending.get(m.id);
       if (!p) return;
@@ -105,11 +112,25 @@
     get busy() { return this.pending.size > 0; }
   }
 
+  // The engine instances: the primary answers every call and keeps the last
+  // analysis (exports, plots); with several series, an analysis is spread
+  // over it and up to maxWorkers - 1 helpers, each a worker with its own
+  // instance of the same compiled module (started on first use).
+  const maxWorkers = Math.max(1, Math.min(8, navigator.hardwareConcurrency || 2));
   let engine = null;
+  const helpers = [];
   const enginePromise = loadWasm().then((wasm) => {
     engine = new Engine(wasm);
     return engine.ready;
   });
+  function enginesFor(n) {
+    while (helpers.length < n - 1) helpers.push(new Engine(engine.wasm));
+    return [engine, ...helpers.slice(0, n - 1)];
+  }
+  function cancelAll() {
+    if (engine) engine.cancel();
+    for (const h of helpers) if (h.busy) h.cancel();
+  }
 
   const toBytes = (data) => {
     if (typeof data === 'string') return new TextEncoder().encode(data);
@@ -129,6 +150,88 @@
     return engine.call(op, args, onProgress, transfer);
   }
 
+  // analyze runs one analysis. With more than one series and more than one
+  // worker allowed (options.workers, default maxWorkers), the primary plans
+  // it (counts the series), the series are handed out in chunks to the
+  // engine instances as each becomes free, and the primary assembles the
+  // parts by series index: the document is the one a single instance gives
+  // (every replication is seeded by its own index, never by the worker).
+  // options.confirm(plan, workers), if given, receives the plan with the
+  // pilot's estimate before any work and returns (a promise of) whether to
+  // go on. onProgress receives the engine's progress; in a spread run each
+  // report also carries overall (0..1, never going back) and workers.
+  // A cancelled spread run rejects with an error whose partial() resolves
+  // to the document of the series done so far (the others marked).
+  async function analyze(data, settings, name, onProgress, options) {
+    await enginePromise;
+    const o = options || {};
+    const bytes = toBytes(data);
+    const st = settingsText(settings);
+    const nm = name || 'pasted';
+    const want = Math.max(1, Math.min(maxWorkers, Math.floor(Number(o.workers)) || maxWorkers));
+    const single = () => engine.call('analyze', { name: nm, bytes, settings: st }, onProgress, [bytes.buffer]);
+    if (want === 1 && !o.confirm) return single();
+    const plan = await engine.call('plan', { name: nm, bytes: bytes.slice(), settings: st, pilot: !!o.confirm });
+    // Units of work: series, or each picked test on each series (bridge.Units).
+    const n = plan.series, m = plan.units, total = n * m;
+    const engines = total > 1 ? enginesFor(Math.min(want, total)) : [engine];
+    if (o.confirm && !(await o.confirm(plan, engines.length))) throw new EngineError('declined', 'not started');
+    if (engines.length === 1) return single();
+    const parts = plan.first ? plan.first.slice() : [];
+    const queue = [];
+    const chunk = Math.max(1, Math.floor(total / (8 * engines.length)));
+    for (let u = parts.length; u < total; u += chunk) {
+      const units = [];
+      for (let v = u; v < Math.min(total, u + chunk); v++) units.push(v);
+      queue.push(units);
+    }
+    const unitsDone = new Array(n).fill(0);
+    let done = parts.length, seriesDone = 0, overall = 0;
+    for (const p of parts) if (++unitsDone[p.index] === m) seriesDone++;
+    const within = engines.map(() => 0);
+    const current = engines.map(() => ({ units: [], pos: 0 }));
+    const report = (p, k) => {
+      let finished = false; // a whole series is done
+      if (p.stage === 'series') {
+        const u = current[k].units[current[k].pos++];
+        done++;
+        within[k] = 0;
+        if (u !== undefined && ++unitsDone[Math.floor(u / m)] === m) { seriesDone++; finished = true; }
+      } else if (p.stage === 'simulation' && p.total) within[k] = Math.max(within[k], Math.min(0.95, p.done / p.total));
+      overall = Math.max(overall, Math.min(1, (done + within.reduce((a, b) => a + b, 0)) / total));
+      if (onProgress) {
+        const q = Object.assign({}, p, { overall, workers: engines.length });
+        // Stage "series" counts finished series; one test done on a series
+        // whose other tests still run is reported as stage "test".
+        if (p.stage === 'series') Object.assign(q, { stage: finished ? 'series' : 'test', done: seriesDone, total: n });
+        onProgress(q);
+      }
+    };
+    const work = async (e, k) => {
+      while (queue.length) {
+        const units = queue.shift();
+        current[k] = { units, pos: 0 };
+        const copy = bytes.slice();
+        const got = await e.call('part', { name: nm, bytes: copy, settings: st, units }, (p) => report(p, k), [copy.buffer]);
+        parts.push(...got);
+      }
+    };
+    try {
+      await Promise.all(engines.map(work));
+    } catch (err) {
+      queue.length = 0;
+      for (const e of engines) if (e.busy) e.cancel();
+      if (err.kind === 'cancelled' && parts.length) {
+        err.done = seriesDone;
+        err.total = n;
+        err.partial = () => engine.call('assemble', { name: nm, bytes: bytes.slice(), settings: st, parts: parts.slice(), partial: true });
+      }
+      throw err;
+    }
+    parts.sort((a, b) => a.index - b.index || a.test - b.test);
+    return engine.call('assemble', { name: nm, bytes, settings: st, parts, partial: false }, null, [bytes.buffer]);
+  }
+
   // ---------- automation API ----------
 
   const VERSION = '{{VERSION}}';
@@ -136,15 +239,15 @@
     version: () => VERSION,
     ready: enginePromise.then(() => { timings.ready = performance.now() - t0; return VERSION; }),
     timings,
-    analyze: (data, settings, name, onProgress) =>
-      engineCall('analyze', { name: name || 'pasted', bytes: toBytes(data), settings: settingsText(settings) }, onProgress),
+    workers: maxWorkers,
+    analyze: (data, settings, name, onProgress, options) => analyze(data, settings, name, onProgress, options),
     inspect: (data, settings, name) =>
       engineCall('inspect', { name: name || 'pasted', bytes: toBytes(data), settings: settingsText(settings) }),
     exportReport: (format) => engineCall('export', { format: String(format) }),
     plots: (index) => engineCall('plots', { index: Number(index) }),
     bench: (n) => engineCall('bench', { n: Number(n) }).then((r) => r.ms),
     about: () => engineCall('about', {}),
-    cancel: () => { if (engine) engine.cancel(); },
+    cancel: cancelAll,
   };
   Object.freeze(api);
   Object.defineProperty(window, 'rootshift', { value: api, enumerable: true });
@@ -183,6 +286,8 @@
   // ---------- data input ----------
 
   function setData(name, bytes) {
+    // Data to analyse: start the helper workers now rather than on the run.
+    enginePromise.then(() => enginesFor(maxWorkers), () => {});
     state.long = null;
     state.name = name;
     state.bytes = bytes;
@@ -413,9 +518,47 @@
 
   $('run').addEventListener('click', run);
   $('cancel').addEventListener('click', () => {
-    if (engine) engine.cancel();
+    cancelAll();
     status('Cancelled. The engine was restarted; your data and settings are kept.');
   });
+
+  // Long work is announced: a run estimated (by the engine's pilot, see
+  // bridge.Plan) above a minute waits for the user to confirm it.
+  const longRun = 60; // seconds
+  const duration = (secs) => {
+    if (secs < 90) return Math.round(secs) + ' s';
+    const m = Math.round(secs / 60);
+    if (m < 90) return m + ' min';
+    const h = Math.floor(m / 60);
+    return h + ' h' + (m % 60 ? ' ' + (m % 60) + ' min' : '');
+  };
+  function confirmLong(plan, workers, settings) {
+    const per = plan.per_series_ms || [];
+    const secs = Math.max(plan.estimate_ms / workers, ...per.map((x) => x / plan.units)) / 1000;
+    $('confirm-box').dataset.estimate = String(secs);
+    if (!(secs > longRun)) { status('Analysing…'); return true; }
+    const what = [plan.series === 1 ? '1 series' : plan.series + ' series', `up to ${Math.max(0, ...plan.lengths)} observations`];
+    if (settings.sims) what.push(`${settings.sims.toLocaleString('en')} replications`);
+    $('confirm-text').textContent = `This analysis (${what.join(', ')}) will take about ${duration(secs)} ` +
+      `on this computer with ${workers} ${workers === 1 ? 'worker' : 'parallel workers'} (estimated from a short trial run). ` +
+      'Fewer replications, series or tests make it shorter. Start it?';
+    $('progress-box').hidden = true;
+    $('cancel').hidden = true;
+    const box = $('confirm-box');
+    box.hidden = false;
+    status('Waiting for your answer.');
+    $('confirm-run').focus();
+    return new Promise((resolve) => {
+      const answer = (yes) => {
+        box.hidden = true;
+        $('confirm-run').onclick = $('confirm-stop').onclick = null;
+        if (yes) { $('progress-box').hidden = false; $('cancel').hidden = false; status('Analysing…'); }
+        resolve(yes);
+      };
+      $('confirm-run').onclick = () => answer(true);
+      $('confirm-stop').onclick = () => answer(false);
+    });
+  }
 
   async function run() {
     if (!state.bytes || state.running) return;
@@ -436,24 +579,41 @@
     const picked = s.columns ? s.columns.length : (state.preview ? state.preview.series.length : 0);
     const ov = { n: Math.max(1, picked), done: 0, within: 0, frac: 0 };
     $('progress-text').textContent = `Series 1 of ${ov.n}…`;
+    status('Estimating the time…');
     try {
-      const doc = await engineCall('analyze', { name: state.name, bytes: state.bytes.slice(), settings: JSON.stringify(s) }, (p) => {
-        if (p.stage === 'series') { ov.done++; ov.within = 0; ov.n = Math.max(ov.n, ov.done); }
-        else if (p.stage === 'simulation' && p.total) ov.within = Math.max(ov.within, Math.min(0.95, p.done / p.total));
-        ov.frac = Math.max(ov.frac, Math.min(1, (ov.done + ov.within) / ov.n));
+      const doc = await analyze(state.bytes.slice(), s, state.name, (p) => {
+        if (p.overall !== undefined) {
+          // Several workers: the aggregate of every worker's progress.
+          if (p.stage === 'series') { ov.done = p.done; ov.n = Math.max(ov.n, p.total); }
+          ov.frac = Math.max(ov.frac, p.overall);
+        } else {
+          if (p.stage === 'series') { ov.done++; ov.within = 0; ov.n = Math.max(ov.n, ov.done); }
+          else if (p.stage === 'simulation' && p.total) ov.within = Math.max(ov.within, Math.min(0.95, p.done / p.total));
+          ov.frac = Math.max(ov.frac, Math.min(1, (ov.done + ov.within) / ov.n));
+        }
         $('progress').value = Math.floor(100 * ov.frac);
         const secs = (performance.now() - started) / 1000;
-        const left = ov.frac > 0.02 && ov.frac < 1 ? ` · about ${Math.ceil(secs * (1 - ov.frac) / ov.frac)} s left` : '';
-        $('progress-text').textContent = `Series ${Math.min(ov.done + 1, ov.n)} of ${ov.n}` + (p.stage === 'series' ? '' : ': ' + progressText(p)) + left;
+        const left = ov.frac > 0.02 && ov.frac < 1 ? ` · about ${duration(secs * (1 - ov.frac) / ov.frac)} left` : '';
+        const head = p.workers > 1 ? `${ov.done} of ${ov.n} series done (${p.workers} workers)` : `Series ${Math.min(ov.done + 1, ov.n)} of ${ov.n}`;
+        $('progress-text').textContent = head + (p.stage === 'series' ? '' : ': ' + progressText(p)) + left;
         $('progress').dataset.overall = String(ov.frac);
-      });
+      }, { confirm: (plan, workers) => confirmLong(plan, workers, s) });
       state.lastDoc = doc;
       await renderFindings(doc);
       status(`Done in ${((performance.now() - started) / 1000).toFixed(1)} s.`);
       $('findings-h').focus({ preventScroll: true });
       $('findings-h').scrollIntoView({ block: 'start' });
     } catch (err) {
-      if (err.kind === 'cancelled') status('Cancelled. The engine was restarted; your data and settings are kept.');
+      if (err.kind === 'cancelled' && err.partial) {
+        // What finished is kept: the series done so far, the others marked.
+        try {
+          const doc = await err.partial();
+          state.lastDoc = doc;
+          await renderFindings(doc);
+          status(`Cancelled: ${err.done} of ${err.total} series were done and are shown; the others are marked as not analysed.`);
+        } catch (e2) { status('Cancelled. The engine was restarted; your data and settings are kept.'); }
+      } else if (err.kind === 'cancelled') status('Cancelled. The engine was restarted; your data and settings are kept.');
+      else if (err.kind === 'declined') status('Not started. Fewer replications, series or tests make the analysis shorter.');
       else status((err.kind === 'usage' ? 'Settings: ' : '') + err.message, true);
     } finally {
       state.running = false;

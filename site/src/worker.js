@@ -23,7 +23,7 @@ async function init(msg) {
     }, reject);
   });
   engine = self.rootshiftEngine;
-  postMessage({ type: 'ready', version: engine.version });
+  postMessage({ type: 'ready', version: engine.version, shared: msg.module instanceof WebAssembly.Module });
 }
 
 function call(msg) {
@@ -36,6 +36,14 @@ function call(msg) {
       return engine.analyze(a.name, a.bytes, a.settings, (p) => {
         postMessage({ type: 'progress', id: msg.id, progress: JSON.parse(p) });
       });
+    case 'plan':
+      return engine.plan(a.name, a.bytes, a.settings, !!a.pilot);
+    case 'part':
+      return engine.part(a.name, a.bytes, a.settings, JSON.stringify(a.units), (p) => {
+        postMessage({ type: 'progress', id: msg.id, progress: JSON.parse(p) });
+      });
+    case 'assemble':
+      return engine.assemble(a.name, a.bytes, a.settings, JSON.stringify(a.parts), !!a.partial);
     case 'inspect':
       return engine.inspect(a.name, a.bytes, a.settings);
     case 'export':

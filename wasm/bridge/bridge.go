@@ -172,14 +172,7 @@ func (s *Session) Analyze(ctx context.Context, name string, data []byte, setting
 		if err != nil {
 			return nil, err
 		}
-		var b bytes.Buffer
-		if err := report.WriteJSON(&b, doc); err != nil {
-			return nil, &callError{kind: KindInternal, err: err}
-		}
-		s.mu.Lock()
-		s.doc, s.inputs, s.name = doc, inputs, name
-		s.mu.Unlock()
-		return json.RawMessage(b.Bytes()), nil
+		return s.keep(doc, inputs, name)
 	})
 }
 
