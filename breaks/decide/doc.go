@@ -27,7 +27,9 @@
 //     level and slope shift), as a union of rejections (Harvey, Leybourne &
 //     Taylor 2009, 2012) whose size is controlled as a whole: scaled by a
 //     constant simulated under the Gaussian random walk, and confirmed by the
-//     wild bootstrap under the fitted null.
+//     wild bootstrap under the fitted null. malags.go: when the differences
+//     carry the signature of a large negative moving-average root, every
+//     member takes its lags from MAIC (Ng & Perron 2001), with its own table.
 //  6. deterministic.go: breaks and trend on the scale where their inference
 //     is valid: Bai-Perron on the levels of a series found stationary, on the
 //     first difference (changes in drift) of one found integrated.
