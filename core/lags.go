@@ -227,6 +227,113 @@ func (w *DFWork) plainSample(y []float64, det Trend, kmax int) bool {
 	return tss > 0 && !math.IsInf(tss, 0) && !math.IsInf(lss, 0)
 }
 
+// crossLagged fills w.xx (lower triangle) and w.xy with the cross-products
+// of the Dickey-Fuller design at kmax lags over t = start..T, columns
+// [z_{t-1}, Δz_{t-1}, ..., Δz_{t-kmax}, (1), (trend)], against Δz_t, and
+// returns Σ Δz_t². The lagged-difference block is Toeplitz up to its ends:
+// G(i,j) = Σ_t Δz_{t-i} Δz_{t-j} equals G(i-1,j-1) plus the product that
+// enters at the start and minus the one that leaves at the end, so only its
+// first column is summed (O(n·kmax) instead of O(n·kmax²)); crossRowSweep,
+// the row-by-row sweep, is its brute-force twin in the tests.
+func (w *DFWork) crossLagged(z []float64, T, kmax, nd, start int, tbar, tsd float64) float64 {
+	m := 1 + kmax + nd
+	xx, xy := w.xx[:m*m], w.xy[:m]
+	for i := range xx {
+		xx[i] = 0
+	}
+	for i := range xy {
+		xy[i] = 0
+	}
+	// D(s) = Δz at 1-based time s: z[s-1] - z[s-2].
+	D := func(s int) float64 { return z[s-1] - z[s-2] }
+	c, tr := kmax+1, kmax+2
+	var yy float64
+	for t := start; t <= T; t++ {
+		d, lev := D(t), z[t-2]
+		yy += d * d
+		xy[0] += lev * d
+		xx[0] += lev * lev
+		if nd >= 1 {
+			xy[c] += d
+			xx[c*m] += lev
+		}
+		if nd == 2 {
+			tau := (float64(t) - tbar) / tsd
+			xy[tr] += tau * d
+			xx[tr*m] += tau * lev
+			xx[tr*m+c] += tau
+			xx[tr*m+tr] += tau * tau
+		}
+	}
+	if nd >= 1 {
+		xx[c*m+c] = float64(T - start + 1)
+	}
+	for i := 1; i <= kmax; i++ {
+		var sy, s0, s1, sc, st float64
+		for t := start; t <= T; t++ {
+			v := z[t-1-i] - z[t-2-i] // D(t-i)
+			sy += v * (z[t-1] - z[t-2])
+			s0 += v * z[t-2]
+			s1 += v * (z[t-2] - z[t-3])
+			sc += v
+			st += v * float64(t)
+		}
+		xy[i] = sy
+		xx[i*m] = s0
+		xx[i*m+1] = s1 // G(i, 1)
+		if nd >= 1 {
+			xx[c*m+i] = sc
+		}
+		if nd == 2 {
+			xx[tr*m+i] = (st - tbar*sc) / tsd
+		}
+	}
+	for j := 2; j <= kmax; j++ {
+		for i := j; i <= kmax; i++ {
+			xx[i*m+j] = xx[(i-1)*m+j-1] + D(start-i)*D(start-j) - D(T-i+1)*D(T-j+1)
+		}
+	}
+	return yy
+}
+
+// crossRowSweep is the brute-force twin of crossLagged: the same
+// cross-products summed row by row of the design.
+func (w *DFWork) crossRowSweep(z []float64, T, kmax, nd, start int, tbar, tsd float64) float64 {
+	m := 1 + kmax + nd
+	w.xr = grow(w.xr, m)
+	xx, xy, xr := w.xx[:m*m], w.xy[:m], w.xr
+	for i := range xx {
+		xx[i] = 0
+	}
+	for i := range xy {
+		xy[i] = 0
+	}
+	yy := 0.0
+	for t := start; t <= T; t++ {
+		d := z[t-1] - z[t-2]
+		xr[0] = z[t-2]
+		for i := 1; i <= kmax; i++ {
+			xr[i] = z[t-1-i] - z[t-2-i]
+		}
+		if nd >= 1 {
+			xr[kmax+1] = 1
+		}
+		if nd == 2 {
+			xr[kmax+2] = (float64(t) - tbar) / tsd
+		}
+		yy += d * d
+		for i := range m {
+			v := xr[i]
+			xy[i] += v * d
+			row := xx[i*m : i*m+i+1]
+			for j := range row {
+				row[j] += v * xr[j]
+			}
+		}
+	}
+	return yy
+}
+
 // selectLagsFast is the cross-product path of SelectLags; ok is false when
 // the normal equations are numerically singular.
 func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) (k int, ok bool) {
@@ -267,39 +374,10 @@ func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) 
 	if tsd == 0 {
 		tsd = 1
 	}
-	w.xr = grow(w.xr, m)
 	w.xx = grow(w.xx, m*m)
 	w.xy = grow(w.xy, m)
-	xx, xy, xr := w.xx, w.xy, w.xr
-	for i := range xx {
-		xx[i] = 0
-	}
-	for i := range xy {
-		xy[i] = 0
-	}
-	yy := 0.0
-	for t := start; t <= T; t++ {
-		d := z[t-1] - z[t-2]
-		xr[0] = z[t-2]
-		for i := 1; i <= kmax; i++ {
-			xr[i] = z[t-1-i] - z[t-2-i]
-		}
-		if nd >= 1 {
-			xr[kmax+1] = 1
-		}
-		if nd == 2 {
-			xr[kmax+2] = (float64(t) - tbar) / tsd
-		}
-		yy += d * d
-		for i := range m {
-			v := xr[i]
-			xy[i] += v * d
-			row := xx[i*m : i*m+i+1]
-			for j := range row {
-				row[j] += v * xr[j]
-			}
-		}
-	}
+	yy := w.crossLagged(z, T, kmax, nd, start, tbar, tsd)
+	xx, xy := w.xx, w.xy
 	if cap(w.idx) < m {
 		w.idx = make([]int, m)
 	}
