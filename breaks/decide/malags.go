@@ -26,13 +26,16 @@ package decide
 // rates, branch choice included, are measured (reliability.go).
 //
 // In the long-lag branch the ADF members use MAIC on the OLS-detrended
-// series (Perron & Qu 2007), and the Zivot-Andrews members use one lag
-// order for every candidate date: MAIC on the series detrended with the
-// level and slope break at the date that fits a broken trend best by least
-// squares (consistent for the break date whether the noise is I(0) or I(1):
-// Bai 1997; Perron & Zhu 2005). One order for all candidates removes the
-// lag shopping of a per-candidate rule, whose minimum over dates picks the
-// candidate where a short order happened to win.
+// series (Perron & Qu 2007); in the short-lag branch, BIC. In both, the
+// Zivot-Andrews members use one lag order for every candidate date, chosen
+// (MAIC, or BIC with at most 8 lags) on the series detrended with the level
+// and slope break at the date that fits a broken trend best by least
+// squares (consistent for the break date whether the noise is I(0) or
+// I(1): Bai 1997; Perron & Zhu 2005). One order for all candidates removes
+// the lag shopping of a per-candidate rule, whose minimum over dates picks
+// the candidate where a short order happened to win, and costs one
+// regression per candidate instead of one per candidate and order (the
+// bootstrap recomputes the union 99 times).
 
 import (
 	"math"
@@ -152,11 +155,11 @@ func (b *trendBreak) date(y []float64) int {
 	return best
 }
 
-// maicLag returns the MAIC lag order (Ng & Perron 2001, eq. 9) of y
-// detrended by least squares on a constant, a trend and the level and slope
-// break at tb, with Schwert's maximum (at most kmax when kmax >= 0); 0 when
-// it cannot be computed.
-func (b *trendBreak) maicLag(y []float64, tb, kmax int) int {
+// lagAt returns the lag order chosen by rule (core.SelectLags) for y
+// detrended by least squares on a constant, a trend and the level and
+// slope break at tb (no break when tb <= 0), with Schwert's maximum or kmax
+// when smaller (kmax >= 0); 0 when it cannot be computed.
+func (b *trendBreak) lagAt(y []float64, tb int, rule core.LagRule, kmax int) int {
 	T := len(y)
 	if len(b.cols) != 4 || len(b.cols[0]) != T {
 		b.cols = make([][]float64, 4)
@@ -184,15 +187,25 @@ func (b *trendBreak) maicLag(y []float64, tb, kmax int) int {
 	if kmax >= 0 {
 		km = min(km, kmax)
 	}
-	k, err := b.dw.SelectLags(f.Resid, core.TrendNone, core.LagMAIC, km)
+	k, err := b.dw.SelectLags(f.Resid, core.TrendNone, rule, km)
 	if err != nil {
 		return 0
 	}
 	return k
 }
 
-// longLag returns the one lag order of the Zivot-Andrews members in the
-// long-lag branch.
-func (b *trendBreak) longLag(y []float64) int {
-	return b.maicLag(y, b.date(y), -1)
+// zaMaxLags is the largest order of the Zivot-Andrews members in the
+// short-lag branch: that of Zivot & Andrews (1992) and Perron (1997).
+const zaMaxLags = 8
+
+// zaLag returns the one lag order of the Zivot-Andrews members for every
+// candidate date: MAIC (Schwert's maximum) in the long-lag branch, BIC (at
+// most zaMaxLags) in the short-lag branch, each on the series detrended at
+// the least-squares broken-trend date.
+func (b *trendBreak) zaLag(y []float64, long bool) int {
+	tb := b.date(y)
+	if long {
+		return b.lagAt(y, tb, core.LagMAIC, -1)
+	}
+	return b.lagAt(y, tb, core.LagBIC, zaMaxLags)
 }

@@ -6,7 +6,8 @@ package decide
 // alternatives: ADF with a constant, ADF with a linear trend (both with BIC
 // lags; Said & Dickey 1984), and Zivot & Andrews (1992) with a level shift
 // (model A) and with a level and slope shift (model C), each with a trend,
-// trimming 0.15 and t-sig lags (at most 8). When the differences carry the
+// trimming 0.15 and one lag order for every candidate date (BIC, at most 8,
+// at the least-squares broken-trend date; malags.go). When the differences carry the
 // signature of a large negative moving-average root, every member takes
 // long lags instead (MAIC; malags.go), with its own null table. Running each at 5% and taking any
 // rejection would reject a random walk far more often than 5%. Following
@@ -62,14 +63,12 @@ var members = []member{
 	{"za", core.TrendLinear, core.ShiftBoth, -5.08, "Zivot-Andrews with a level and slope shift"},
 }
 
-// memberConfig is the configuration of member m in the short-lag branch:
-// BIC lags for ADF (Said & Dickey 1984 augmentation, Schwert's maximum),
-// t-sig lags chosen per candidate date for Zivot-Andrews (at most 8;
-// Zivot & Andrews 1992 use a t-sig rule). These rules keep the power of the
-// tests. In the long-lag branch (malags.go: the differences carry the
-// signature of a large negative moving-average root) ADF chooses its lags
-// by MAIC (Ng & Perron 2001) and Zivot-Andrews uses the one order zaLag for
-// every candidate date.
+// memberConfig is the configuration of member m: BIC lags for ADF (Said &
+// Dickey 1984 augmentation, Schwert's maximum) in the short-lag branch and
+// MAIC (Ng & Perron 2001) in the long-lag branch (malags.go: the
+// differences carry the signature of a large negative moving-average root);
+// Zivot-Andrews at the one order zaLag for every candidate date (malags.go,
+// trendBreak.zaLag).
 func memberConfig(m member, long bool, zaLag int) *core.Config {
 	c := &core.Config{Trend: m.trend, Shift: m.shift, Workers: 1}
 	switch {
@@ -77,7 +76,7 @@ func memberConfig(m member, long bool, zaLag int) *core.Config {
 		c.LagRule = core.LagMAIC
 	case m.id == "adf":
 		c.LagRule = core.LagBIC
-	case long:
+	default:
 		c.LagRule, c.Lags = core.LagFixed, zaLag
 	}
 	return c
@@ -87,8 +86,8 @@ func memberConfig(m member, long bool, zaLag int) *core.Config {
 // own scratch space, in either branch.
 type unionCalc struct {
 	T     int
-	short []core.StatFunc         // members, short-lag rules
-	long  []core.StatFunc         // ADF members with MAIC (Zivot-Andrews: zaAt)
+	short []core.StatFunc         // ADF members with BIC (Zivot-Andrews: zaAt)
+	long  []core.StatFunc         // ADF members with MAIC
 	zaAt  map[int][]core.StatFunc // Zivot-Andrews members at a fixed order
 	tb    trendBreak
 	err   error
@@ -102,14 +101,15 @@ func newUnionCalc(T int) *unionCalc {
 			u.err = err
 			return u
 		}
+		if m.id != "adf" {
+			continue
+		}
 		c := memberConfig(m, false, 0)
 		c.NoPath = true
 		u.short = append(u.short, info.StatOf(T, c))
-		if m.id == "adf" {
-			c := memberConfig(m, true, 0)
-			c.NoPath = true
-			u.long = append(u.long, info.StatOf(T, c))
-		}
+		c = memberConfig(m, true, 0)
+		c.NoPath = true
+		u.long = append(u.long, info.StatOf(T, c))
 	}
 	return u
 }
@@ -143,8 +143,9 @@ func (u *unionCalc) raw(y []float64, long bool) (float64, error) {
 	}
 	fs := u.short
 	if long {
-		fs = append(u.long[:len(u.long):len(u.long)], u.za(u.tb.longLag(y))...)
+		fs = u.long
 	}
+	fs = append(fs[:len(fs):len(fs)], u.za(u.tb.zaLag(y, long))...)
 	if len(fs) != len(members) {
 		return 0, fmt.Errorf("union: %d of %d members prepared", len(fs), len(members))
 	}
@@ -179,6 +180,26 @@ type unitRootOut struct {
 	tests      []*schema.Result // by member, nil when failed
 	lead       *schema.Result   // the member with the largest ratio
 	leadIdx    int
+	// unconfirmed is set when R exceeds its table but the bootstrap does
+	// not confirm the rejection (bootP is its p-value).
+	unconfirmed bool
+	bootP       float64
+}
+
+// unconfirmedWords says, for a verdict that keeps the unit root, that the
+// strongest member rejects by its tabulated values but the bootstrap does
+// not confirm it ("" otherwise). what names the series tested ("", or "the
+// first difference").
+func (u *unitRootOut) unconfirmedWords(what string) string {
+	if u == nil || !u.unconfirmed || u.lead == nil || u.lead.Statistic == nil {
+		return ""
+	}
+	on := ""
+	if what != "" {
+		on = " on " + what
+	}
+	return fmt.Sprintf(" %s%s alone rejects by its tabulated critical values (t = %.2f), but the wild bootstrap under the fitted I(1) null, which keeps the series' own drift path, volatility and short-run dynamics, does not confirm it (p = %s): its rejection is what an integrated series like this one often produces.",
+		members[u.leadIdx].label, on, *u.lead.Statistic, pText(u.bootP))
 }
 
 func (w *work) unitRoot(ctx context.Context) (*unitRootOut, error) {
@@ -195,9 +216,8 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 	calc := newUnionCalc(T)
 	r1 := diffAutocorr(x)
 	long := r1 <= maCut
-	zaLag := 0
+	zaLag := calc.tb.zaLag(x, long)
 	if long {
-		zaLag = calc.tb.longLag(x)
 		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("the differences have first autocorrelation %.2f (at most %.2f): the signature of a large negative moving-average root, so every member takes long lags (MAIC, Ng & Perron 2001; Zivot-Andrews at %d lags for every date)", r1, maCut, zaLag))
 	}
 	for i, m := range members {
@@ -248,7 +268,7 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 	}
 	spec.sd = localSD(d)
 	if !long {
-		spec.k = nullOrder(x, spec, spec.k)
+		spec.k = nullOrder(x, spec, zaMaxLags)
 	}
 	null, err := fitNull(x, spec, mu, db)
 	if err != nil {
@@ -277,6 +297,7 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 		out.stage.Decision = "unit root rejected"
 	} else {
 		out.stage.Decision = "unit root not rejected"
+		out.unconfirmed, out.bootP = true, p
 	}
 	return out, nil
 }
@@ -296,9 +317,10 @@ func pWords(p float64) string {
 // (the procedure passes Zivot-Andrews with a level and slope shift, whose
 // regression nests those of the other members, so that whatever level or
 // trend change the series has is in the regression and not in the γ_j).
-// Its lag order is the member's own: t-sig in the short-lag branch, MAIC
-// in the long-lag branch (malags.go), where the recoloured bootstrap
-// samples then carry a large negative moving-average root as the data do.
+// Its lag order is chosen by BIC (nullOrder, at most zaMaxLags) in the
+// short-lag branch and is the member's MAIC order in the long-lag branch
+// (malags.go), where the recoloured bootstrap samples then carry a large
+// negative moving-average root as the data do.
 // Taking the dynamics from the unrestricted regression keeps the power of
 // the bootstrap against stationary alternatives (Palm, Smeekes & Urbain
 // 2008). A long MAIC order in the short-lag branch would not: on a
