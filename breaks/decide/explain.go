@@ -59,6 +59,7 @@ func (w *work) explosiveVerdict(v *schema.Verdict, ex *explosiveOut) {
 func (w *work) i2Verdict(v *schema.Verdict, ord *orderOut) {
 	v.Class, v.Order, v.Transform = ClassUnitRoot, intp(2), TransformSecondDiff
 	v.Explanation = fmt.Sprintf("Integrated of order two%s: the change itself is persistent. Neither ADF nor the union of unit-root tests with a break in the mean or trend of the first difference rejects a unit root in the first difference, and the order is tested from the top (Dickey & Pantula 1987), so the data do not support treating the first difference as stationary in this sample. The tests indicate differencing twice; if theory says the growth rate is stationary (as it usually is for activity and employment series), difference once and model the persistence of the changes explicitly, or use a longer sample.", w.onScale())
+	v.Explanation += ord.union.unconfirmedWords("the first difference")
 	if ord.dADF != nil {
 		v.Supporting = append(v.Supporting, describe(ord.dADF))
 	}
@@ -126,6 +127,7 @@ func (w *work) integratedVerdict(v *schema.Verdict, ur *unitRootOut, det *detOut
 		v.Explanation = fmt.Sprintf("A unit root %s%s: the union of unit-root tests, with and without a break, does not reject (p %s); allowing a level or slope shift does not change that. %s.",
 			drift, w.onScale(), pWords(deref(ur.stage.PValue)), how)
 	}
+	v.Explanation += ur.unconfirmedWords("")
 	for _, r := range ur.tests {
 		if r != nil && r == ur.lead {
 			v.Supporting = append(v.Supporting, describe(r))

@@ -26,6 +26,7 @@ type orderOut struct {
 	i2    bool
 	stage schema.Stage
 	dADF  *schema.Result
+	union *unitRootOut // the union on the first difference, when it ran
 }
 
 func (w *work) order(ctx context.Context) (*orderOut, error) {
@@ -63,6 +64,8 @@ func (w *work) order(ctx context.Context) (*orderOut, error) {
 	if err != nil {
 		return nil, err
 	}
+	out.union = u
+	w.dropDuplicate(res)
 	out.stage.Evidence = append(out.stage.Evidence, "with breaks allowed in the mean and trend of the difference: "+strings.Join(u.stage.Evidence, "; "))
 	if !u.missing && u.stationary {
 		out.stage.Decision = "at most I(1), with a changing drift"
@@ -74,6 +77,20 @@ func (w *work) order(ctx context.Context) (*orderOut, error) {
 	out.stage.Decision = "I(2)"
 	out.stage.Evidence = append(out.stage.Evidence, "neither rejects: the difference itself looks integrated")
 	return out, nil
+}
+
+// dropDuplicate removes from the run's results a later result that repeats
+// r (the union's ADF with a constant and BIC lags on the first difference
+// is the Dickey-Pantula test itself): one test, one row.
+func (w *work) dropDuplicate(r *schema.Result) {
+	for i, o := range w.results {
+		if o == r || o == nil || o.Test != r.Test || o.Trend != r.Trend || o.Lags != r.Lags ||
+			o.Statistic == nil || r.Statistic == nil || *o.Statistic != *r.Statistic || o.NObs != r.NObs {
+			continue
+		}
+		w.results = append(w.results[:i], w.results[i+1:]...)
+		return
+	}
 }
 
 func diff(y []float64) []float64 {
