@@ -109,7 +109,7 @@ func mdSeries(e *errWriter, s *schema.Series) {
 		}
 		for i := range s.Results {
 			r := &s.Results[i]
-			variant, vdetail := variantText(r)
+			variant, vdetail := variantTrendText(r)
 			cv5 := "n/a"
 			if c, ok := cv(r.CriticalValues, "0.05"); ok {
 				cv5 = num(c, "n/a")

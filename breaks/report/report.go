@@ -563,6 +563,32 @@ func variantText(r *schema.Result) (short, detail string) {
 	return short, detail
 }
 
+// variantTrendText is variantText with the deterministic terms in front for
+// tests without a break shift, for the tables that have no trend column
+// (text and Markdown): two ADF rows on the same series then read
+// "constant, ..." and "trend, ..." instead of looking like one test twice.
+func variantTrendText(r *schema.Result) (short, detail string) {
+	short, detail = variantText(r)
+	if r.Shift != "" {
+		return short, detail
+	}
+	var w string
+	switch r.Trend {
+	case "constant":
+		w = "constant"
+	case "linear":
+		w = "trend"
+	case "none":
+		w = "no constant"
+	default:
+		return short, detail
+	}
+	if short == "" {
+		return w, detail
+	}
+	return w + ", " + short, detail
+}
+
 // surfaceText summarises a two-break surface.
 func surfaceText(s *schema.Surface) string {
 	return strconv.Itoa(s.Candidates) + " candidate pairs, statistic from " +

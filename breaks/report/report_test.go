@@ -273,7 +273,7 @@ func TestMarkdown(t *testing.T) {
 	out := buf.String()
 	for _, want := range []string{
 		`## GDP\_real & co %`, `## CPI \#2 {x}\$`, "| za | level | -5.2345 | n/a |", "> **Caution.**",
-		`|  | ↳ supF(1\|0) | 42.5000 | <0.001 |`, "| kpss |  | 0.8512 | <0.01 |",
+		`|  | ↳ supF(1\|0) | 42.5000 | <0.001 |`, "| kpss | constant | 0.8512 | <0.01 |",
 	} {
 		if !strings.Contains(out, want) {
 			t.Errorf("markdown lacks %q", want)

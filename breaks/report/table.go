@@ -122,7 +122,7 @@ func tableSeries(e *errWriter, s *schema.Series) {
 		if r.PValueSim != nil {
 			hasSim = true
 		}
-		variant, vdetail := variantText(r)
+		variant, vdetail := variantTrendText(r)
 		row := tableRow{
 			test:     visible(r.Test),
 			variant:  variant,
