@@ -213,7 +213,12 @@ func reliabilityFrom(tab *RateTable, v *schema.Verdict, T int, source string) *s
 	if tab.T != T {
 		at = fmt.Sprintf("At T = %d (the simulated length nearest this series' %d)", tab.T, T)
 	}
-	pct := func(x float64) string { return fmt.Sprintf("%.0f%%", 100*x) }
+	pct := func(x float64) string {
+		if x > 0 && x < 0.005 {
+			return "under 1%"
+		}
+		return fmt.Sprintf("%.0f%%", 100*x)
+	}
 	// WrongRate is the rate the headline leads with: the worst share of
 	// processes from the class the verdict is most often confused with that
 	// receive this verdict's direction: integrated processes for a
@@ -239,9 +244,16 @@ func reliabilityFrom(tab *RateTable, v *schema.Verdict, T int, source string) *s
 		shift, _ := find("ar-shift5", DirIntegrated)
 		rel.Rates = append(rel.Rates, bad, shift)
 		rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in up to %s of simulated cases (worst: %s; %s for a stationary series around a 5-sigma level shift).", at, pct(bad.Rate), bad.Process, pct(shift.Rate))
-		if bad.Process == shift.Process {
+		switch {
+		case bad.Rate == 0:
+			rel.Headline = fmt.Sprintf("%s this procedure called none of the simulated stationary series integrated (%d draws of each).", at, bad.Draws)
+		case bad.Process == shift.Process:
 			rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in up to %s of simulated cases (worst: %s).", at, pct(bad.Rate), bad.Process)
 		}
+		// The simulated stationary processes have a root of 0.5: say what
+		// they do not cover (common practice, no source: the power of every
+		// unit-root test falls towards its size as the root nears one).
+		rel.Headline += " Those simulated series have an autoregressive root of 0.5; a stationary series whose root is near one is much harder to tell from a unit root at this length."
 	case DirExplosive:
 		bad, ok := worst(DirIntegrated, DirExplosive)
 		setWrong(bad, ok)
