@@ -219,6 +219,13 @@ func reliabilityFrom(tab *RateTable, v *schema.Verdict, T int, source string) *s
 		}
 		return fmt.Sprintf("%.0f%%", 100*x)
 	}
+	// bound is "at most 5%" (word "at most"), or "under 1%".
+	bound := func(word string, x float64) string {
+		if x > 0 && x < 0.005 {
+			return pct(x)
+		}
+		return word + " " + pct(x)
+	}
 	// WrongRate is the rate the headline leads with: the worst share of
 	// processes from the class the verdict is most often confused with that
 	// receive this verdict's direction: integrated processes for a
@@ -237,18 +244,18 @@ func reliabilityFrom(tab *RateTable, v *schema.Verdict, T int, source string) *s
 		ma, _ := find("rw-ma", DirStationary)
 		good, _ := find("ar-shift5", DirStationary)
 		rel.Rates = append(rel.Rates, bad, ma, good)
-		rel.Headline = fmt.Sprintf("%s this procedure calls an integrated series stationary in at most %s of simulated cases (worst: %s), but in %s when the errors have a strong negative moving-average part (theta = -0.8); it finds a stationary series around a 5-sigma level shift stationary in %s.", at, pct(bad.Rate), bad.Process, pct(ma.Rate), pct(good.Rate))
+		rel.Headline = fmt.Sprintf("%s this procedure calls an integrated series stationary in %s of simulated cases (worst: %s), but in %s when the errors have a strong negative moving-average part (theta = -0.8); it finds a stationary series around a 5-sigma level shift stationary in %s.", at, bound("at most", bad.Rate), bad.Process, pct(ma.Rate), pct(good.Rate))
 	case DirIntegrated:
 		bad, ok := worst(DirStationary, DirIntegrated)
 		setWrong(bad, ok)
 		shift, _ := find("ar-shift5", DirIntegrated)
 		rel.Rates = append(rel.Rates, bad, shift)
-		rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in up to %s of simulated cases (worst: %s; %s for a stationary series around a 5-sigma level shift).", at, pct(bad.Rate), bad.Process, pct(shift.Rate))
+		rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in %s of simulated cases (worst: %s; %s for a stationary series around a 5-sigma level shift).", at, bound("up to", bad.Rate), bad.Process, pct(shift.Rate))
 		switch {
 		case bad.Rate == 0:
 			rel.Headline = fmt.Sprintf("%s this procedure called none of the simulated stationary series integrated (%d draws of each).", at, bad.Draws)
 		case bad.Process == shift.Process:
-			rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in up to %s of simulated cases (worst: %s).", at, pct(bad.Rate), bad.Process)
+			rel.Headline = fmt.Sprintf("%s this procedure calls a stationary series integrated in %s of simulated cases (worst: %s).", at, bound("up to", bad.Rate), bad.Process)
 		}
 		// The simulated stationary processes have a root of 0.5: say what
 		// they do not cover (common practice, no source: the power of every
@@ -259,7 +266,7 @@ func reliabilityFrom(tab *RateTable, v *schema.Verdict, T int, source string) *s
 		setWrong(bad, ok)
 		good, _ := find("explosive-1.02", DirExplosive)
 		rel.Rates = append(rel.Rates, bad, good)
-		rel.Headline = fmt.Sprintf("%s this procedure calls an integrated series explosive in at most %s of simulated cases (worst: %s), and finds an explosive AR(1) with root 1.02 in %s.", at, pct(bad.Rate), bad.Process, pct(good.Rate))
+		rel.Headline = fmt.Sprintf("%s this procedure calls an integrated series explosive in %s of simulated cases (worst: %s), and finds an explosive AR(1) with root 1.02 in %s.", at, bound("at most", bad.Rate), bad.Process, pct(good.Rate))
 	default:
 		rel.Headline = at + " the procedure's rates are in doc/confusion.md."
 	}
