@@ -95,6 +95,26 @@ func SettingsDescription() []SettingInfo {
 	}
 }
 
+// CommandOnlySettings describes the settings that the page sets by other
+// means (the test picker, the series picker) or does not offer (the
+// verdict's error rates recomputed, the explosive tests' minimum window).
+// Together with SettingsDescription they describe every setting but long
+// (the long-table reading, which has its own options); the command line's
+// help is written from both, so that it and the page say the same.
+func CommandOnlySettings() []SettingInfo {
+	return []SettingInfo{
+		{Field: "tests", Label: "Tests to run (comma-separated ids)", Kind: "list", Default: "the default battery and the verdict",
+			AppliesTo: "every series; the ids are those of the test list"},
+		{Field: "verdict", Label: "Also give the verdict when tests are listed", Kind: "flag",
+			Default: "off (without a list of tests the verdict is always given)", AppliesTo: "the verdict"},
+		{Field: "columns", Input: true, Label: "Series to test (comma-separated column names)", Kind: "list", Default: "every numeric column", AppliesTo: "reading the file"},
+		{Field: "min_window", Advanced: true, Label: "Smallest window of the recursive regressions, as a fraction of the sample", Kind: "number",
+			Default: "0.01 + 1.8/√T", Min: bound(0), Max: bound(1), AppliesTo: "sadf, gsadf (strictly between 0 and 1)"},
+		{Field: "rate_draws", Advanced: true, Label: "Recompute the verdict's error rates with this many draws per simulated process", Kind: "integer",
+			Default: "0: the committed tables", Min: bound(0), Max: bound(100_000), AppliesTo: "the verdict's reliability, at the series' length and these settings (slow)"},
+	}
+}
+
 // describedValues lists, for the settings whose choices are a closed list,
 // the values Validate accepts; used to check SettingsDescription.
 func describedValues(field string) ([]string, bool) {

@@ -316,5 +316,8 @@ func shortDuration(sec float64) string {
 		}
 		return fmt.Sprintf("%d min %d s", s/60, s%60)
 	}
+	if (s%3600)/60 == 0 {
+		return fmt.Sprintf("%d h", s/3600)
+	}
 	return fmt.Sprintf("%d h %d min", s/3600, (s%3600)/60)
 }
