@@ -52,7 +52,7 @@ func outputFlags(fs *flag.FlagSet, o *outputOpts) {
 func (e *env) test(args []string) int {
 	var s schema.Settings
 	var o outputOpts
-	fs := newFlagSet("test", e.stdout, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).\nThe series are analysed in parallel; the output is in input order, the same for any -j.\n\nExit status: 0 every series tested, 1 some failed, 2 usage errors, 3 the output could not\nbe written, 4 nothing to process (empty input), 130 interrupted, 143 terminated (SIGTERM).")
+	fs := newFlagSet("test", e.stdout, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).\nThe series are analysed in parallel; the output is in input order, the same for any -j.\n\nExit status: 0 every series tested, 1 some failed, 2 usage errors, 3 the output could not\nbe written, 4 nothing to process (empty input), 130 interrupted, 143 terminated (SIGTERM); after an\ninterruption the series finished before it are written.\n\nWork estimated above 3 s is announced on standard error, and work above an hour needs --force.")
 	settingsFlags(fs, &s)
 	fs.BoolVar(&o.json, "json", false, "print the JSON document (schema rootshift.results/v2); same as --format json")
 	fs.StringVar(&o.format, "format", "table", "output: "+strings.Join(report.Formats, ", "))
