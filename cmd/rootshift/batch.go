@@ -212,7 +212,7 @@ func (e *env) batch(args []string) int {
 	var m *meter
 	if !quiet && (progressEvery > 0 || isTerminal(e.stderr)) {
 		m = newMeter(e.stderr, isTerminal(e.stderr), nil)
-		m.every = progressEvery
+		m.every, m.forecast = progressEvery, true
 		cfg.Progress = func(s batch.Summary) {
 			if s.Current.Stage != "" {
 				m.step(s.Current)

@@ -54,6 +54,10 @@ type meter struct {
 	completed map[int]map[string]bool
 	// model is the calibrated estimate of the whole run in seconds (0: none).
 	model float64
+	// forecast (batch, which has no forecast before work) prints once, as
+	// soon as the measured rate gives one, the length of the whole run
+	// when it exceeds announceAbove.
+	forecast, forecastDone bool
 }
 
 func newMeter(w io.Writer, tty bool, now func() time.Time) *meter {
@@ -237,6 +241,17 @@ func (m *meter) line() string {
 // (terminal). Called with mu held.
 func (m *meter) show(final, finishedNow bool) {
 	t := m.now()
+	if m.forecast && !m.forecastDone && m.done > 0 && m.total >= 0 && (m.done >= 5 || t.Sub(m.start) >= 5*time.Second) {
+		m.forecastDone = true
+		el := t.Sub(m.start).Seconds()
+		if left, ok := m.left(el); ok && el+left > announceAbove.Seconds() {
+			if m.tty && m.width > 0 {
+				fmt.Fprintf(m.w, "\r%s\r", strings.Repeat(" ", m.width))
+				m.width = 0
+			}
+			fmt.Fprintf(m.w, "rootshift: about %s in all for about %d series (from the rate of the first %d)\n", shortDuration(el+left), m.total, m.done)
+		}
+	}
 	if m.tty {
 		if final {
 			if m.width > 0 {

@@ -251,3 +251,21 @@ func TestTestCancelKeepsFinished(t *testing.T) {
 		t.Errorf("stderr does not say what was kept: %s", errw.b.String())
 	}
 }
+
+// TestMeterForecast: batch's forecast is printed once, from the rate of
+// the first series (5 of them, or those done in the first 5 s: here 3 at
+// 2 s each), when the whole run exceeds the announcement threshold.
+func TestMeterForecast(t *testing.T) {
+	clk := newFakeClock()
+	var b bytes.Buffer
+	m := newMeter(&b, false, clk.now)
+	m.every, m.forecast = 0, true
+	for i := 1; i <= 10; i++ {
+		clk.add(2 * time.Second)
+		m.summary(i, i, 0, 100)
+	}
+	want := "rootshift: about 3 min 20 s in all for about 100 series (from the rate of the first 3)\n"
+	if b.String() != want {
+		t.Errorf("stderr %q, want %q", b.String(), want)
+	}
+}
