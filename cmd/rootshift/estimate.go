@@ -4,7 +4,6 @@ import (
 	"context"
 	"fmt"
 	"math"
-	"runtime"
 	"time"
 
 	"github.com/rootshift/rootshift/breaks/batch"
@@ -20,10 +19,11 @@ import (
 // to pilotMaxObs observations) with the run's settings, once without
 // simulated p-values (the base cost) and, with --sims, once more with a few
 // replications, which gives the cost of one replication of the tests
-// asked for. Between the two pilot lengths the cost follows a power of T
+// asked for; with --rate-draws, once more with one draw of the verdict's
+// error rates, which gives the cost of a draw. Between the two pilot lengths the cost follows a power of T
 // fitted through them (its exponent held to [1, 3]; exponent 2, the break
 // searches' order, when there is one pilot length and series are longer);
-// a series' cost is base(T) + sims x replication(T). The run's time is the
+// a series' cost is base(T) + sims x replication(T) + rate draws x draw(T). The run's time is the
 // sum over series divided by the workers that run at once.
 const (
 	pilotMaxObs = 1000
@@ -46,12 +46,14 @@ const (
 type costPoint struct {
 	T         int
 	base, rep float64 // seconds: the analysis without simulations; one replication of every test simulated
+	draw      float64 // seconds: one draw of the verdict's error rates (--rate-draws)
 }
 
 // costModel gives the seconds one series of length T takes on one core.
 type costModel struct {
-	points []costPoint // by increasing T
-	sims   int
+	points    []costPoint // by increasing T
+	sims      int
+	rateDraws int
 }
 
 // at interpolates (or extrapolates) the cost at T.
@@ -72,7 +74,7 @@ func (c *costModel) at(T int) float64 {
 		}
 		return v * math.Pow(float64(T)/float64(ref.T), p)
 	}
-	return scale(a.base, b.base) + float64(c.sims)*scale(a.rep, b.rep)
+	return scale(a.base, b.base) + float64(c.sims)*scale(a.rep, b.rep) + float64(c.rateDraws)*scale(a.draw, b.draw)
 }
 
 // runEstimate is the forecast of a `test` run.
@@ -80,6 +82,8 @@ type runEstimate struct {
 	costs   []float64 // seconds per series on one core (0 for failed series)
 	seconds float64   // wall time with the run's workers
 	series  int       // series analysed
+	// rateDraws is the run's --rate-draws (said in the announcement).
+	rateDraws int
 }
 
 // timeOnce runs f repeatedly until pilotMinTime has passed (at most
@@ -104,7 +108,7 @@ func timeOnce(f func() error) (float64, error) {
 // not run (cancellation).
 func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force bool) *costModel {
 	var short, long *dataset.Series
-	total := 0
+	total, count := 0, 0
 	for i := range jobs {
 		j := &jobs[i]
 		n := len(j.in.Values)
@@ -112,6 +116,7 @@ func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force b
 			continue
 		}
 		total += n
+		count++
 		if short == nil || n < len(short.Values) {
 			short = &j.in
 		}
@@ -122,8 +127,13 @@ func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force b
 	if short == nil || (s.Sims == 0 && s.RateDraws == 0 && total < pilotSkipObs) {
 		return nil
 	}
-	m := &costModel{sims: s.Sims}
+	m := &costModel{sims: s.Sims, rateDraws: s.RateDraws}
 	opt := &battery.Options{Workers: 1}
+	if count == 1 {
+		// One series: its simulations use every core, in the run and in
+		// the pilot.
+		opt.Workers = 0
+	}
 	cut := func(in dataset.Series, n int) dataset.Series {
 		if len(in.Values) <= n {
 			return in
@@ -163,6 +173,14 @@ func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force b
 				}
 			}
 		}
+		if s.RateDraws > 0 {
+			ps.Sims, ps.RateDraws = 0, 1
+			t, err := timeOnce(func() error { _, err := battery.AnalyzeSeries(ctx, pin, ps, opt); return err })
+			if err != nil {
+				return nil
+			}
+			pt.draw = max(0, t-base)
+		}
 		m.points = append(m.points, pt)
 	}
 	return m
@@ -171,7 +189,7 @@ func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force b
 // estimateRun applies the model to every series of the run with the
 // number of workers that will run at once.
 func estimateRun(m *costModel, jobs []seriesJob, workers int, force bool) runEstimate {
-	var r runEstimate
+	r := runEstimate{rateDraws: m.rateDraws}
 	r.costs = make([]float64, len(jobs))
 	sum := 0.0
 	for i, j := range jobs {
@@ -183,11 +201,8 @@ func estimateRun(m *costModel, jobs []seriesJob, workers int, force bool) runEst
 		r.costs[i] = m.at(n)
 		sum += r.costs[i]
 	}
+	// One series: its simulations used every core in the pilot too.
 	par := min(max(1, workers), max(1, r.series))
-	if r.series == 1 {
-		// One series: its simulations use every core.
-		par = max(1, runtime.GOMAXPROCS(0))
-	}
 	r.seconds = sum / float64(par)
 	return r
 }
@@ -201,6 +216,9 @@ func (r runEstimate) describe(sims int) string {
 	}
 	if sims > 0 {
 		what += fmt.Sprintf(" with %d simulated replications per test", sims)
+	}
+	if r.rateDraws > 0 {
+		what += fmt.Sprintf(", error rates recomputed with %d draws", r.rateDraws)
 	}
 	return fmt.Sprintf("about %s for %s (measured by a short trial run on this machine)", shortDuration(r.seconds), what)
 }

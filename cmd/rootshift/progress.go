@@ -92,7 +92,11 @@ func (m *meter) step(p battery.Progress) {
 	if p.Stage == "series" {
 		return
 	}
-	if p.Stage == "simulation" && p.Total > 0 && m.perSeries > 0 {
+	if p.Stage == "simulation" && p.Total > 0 && (m.perSeries == 0 || p.Test == "verdict reliability") && m.weights != nil {
+		// Replications not counted in advance (the verdict's error rates
+		// recomputed): the share of the simulation in work.
+		m.partial[p.Index] = max(m.partial[p.Index], min(float64(p.Done)/float64(p.Total), 0.95))
+	} else if p.Stage == "simulation" && p.Total > 0 && m.perSeries > 0 {
 		// Replication counts of one simulation may arrive out of order: a
 		// simulation counts in full once, when its last replication is
 		// reported.
