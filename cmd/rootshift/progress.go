@@ -3,11 +3,13 @@ package main
 import (
 	"fmt"
 	"io"
+	"os"
 	"strings"
 	"sync"
 	"time"
 
 	"github.com/rootshift/rootshift/breaks/battery"
+	"golang.org/x/term"
 )
 
 // meter shows the overall progress of `test`, `demo` and `batch` on
@@ -27,6 +29,9 @@ type meter struct {
 	w   io.Writer
 	tty bool
 	now func() time.Time
+	// cols is the terminal's width: a longer line is cut to fit, since a
+	// line that wraps cannot be redrawn in place (0: no limit).
+	cols int
 
 	every         int
 	first, period time.Duration
@@ -64,7 +69,13 @@ func newMeter(w io.Writer, tty bool, now func() time.Time) *meter {
 	if now == nil {
 		now = time.Now
 	}
-	return &meter{w: w, tty: tty, now: now, start: now(), lastLine: now(), total: -1,
+	cols := 0
+	if f, ok := w.(*os.File); ok && tty {
+		if c, _, err := term.GetSize(int(f.Fd())); err == nil {
+			cols = c
+		}
+	}
+	return &meter{w: w, cols: cols, tty: tty, now: now, start: now(), lastLine: now(), total: -1,
 		every: 1000, first: 5 * time.Second, period: 30 * time.Second,
 		partial: map[int]float64{}, simsDone: map[int]int{}, completed: map[int]map[string]bool{}}
 }
@@ -269,6 +280,9 @@ func (m *meter) show(final, finishedNow bool) {
 		}
 		m.lastDraw = t
 		s := m.line()
+		if m.cols > 1 && len(s) > m.cols-1 {
+			s = s[:m.cols-4] + "..."
+		}
 		pad := ""
 		if len(s) < m.width {
 			pad = strings.Repeat(" ", m.width-len(s))

@@ -178,6 +178,15 @@ func TestMeterTerminal(t *testing.T) {
 	if strings.Contains(s, "\n") || strings.Count(s, "\r") < 4 || !strings.Contains(s, "3 of 3 series done") || !strings.HasSuffix(s, "\r") {
 		t.Errorf("terminal output %q", s)
 	}
+	// A line wider than the terminal is cut to fit.
+	b.Reset()
+	m = newMeter(&b, true, clk.now)
+	m.cols = 30
+	m.setTotal(3)
+	m.step(battery.Progress{Stage: "test", Test: "za", Series: "a long series name", Index: 1})
+	if l := strings.TrimPrefix(b.String(), "\r"); len(l) != 29 || !strings.HasSuffix(l, "...") {
+		t.Errorf("line %q on a 30-column terminal", l)
+	}
 }
 
 // TestTestProgressLines runs `test` on the demo with standard error not a
