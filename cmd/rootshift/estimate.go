@@ -20,11 +20,15 @@ import (
 // simulated p-values (the base cost) and, with --sims, once more with a few
 // replications, which gives the cost of one replication of the tests
 // asked for; with --rate-draws, once more with one draw of the verdict's
-// error rates, which gives the cost of a draw. Between the two pilot lengths the cost follows a power of T
-// fitted through them (its exponent held to [1, 3]; exponent 2, the break
-// searches' order, when there is one pilot length and series are longer);
-// a series' cost is base(T) + sims x replication(T) + rate draws x draw(T). The run's time is the
-// sum over series divided by the workers that run at once.
+// error rates, which gives the cost of a draw. When the longest series
+// is cut, or is not much longer than the shortest, the second pilot length
+// is the longest series cut to half the first, so that there are two
+// lengths whenever the run holds series longer than the pilot. Between
+// (and beyond) the pilot lengths the cost follows a power of T fitted
+// through them (its exponent held to [1, 3]; exponent 2, the break
+// searches' order, when there is one pilot length); a series' cost is
+// base(T) + sims x replication(T) + rate draws x draw(T). The run's time
+// is the sum over series divided by the workers that run at once.
 const (
 	pilotMaxObs = 1000
 	// pilotMinTime is how long a pilot measurement runs at least (it is
@@ -144,12 +148,23 @@ func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force b
 		}
 		return in
 	}
-	lengths := []*dataset.Series{short}
-	if len(long.Values) > len(short.Values) && min(len(long.Values), pilotMaxObs) > len(short.Values) {
-		lengths = append(lengths, long)
+	type pilot struct {
+		in *dataset.Series
+		n  int
 	}
-	for _, in := range lengths {
-		pin := cut(*in, pilotMaxObs)
+	a := pilot{short, min(len(short.Values), pilotMaxObs)}
+	b := pilot{long, min(len(long.Values), pilotMaxObs)}
+	pilots := []pilot{a}
+	switch {
+	case len(long.Values) > b.n && 2*a.n > b.n:
+		// Series longer than the pilot and no shorter length measured:
+		// the longest also at half the pilot's length.
+		pilots = []pilot{{long, b.n / 2}, b}
+	case b.n > a.n:
+		pilots = append(pilots, b)
+	}
+	for _, p := range pilots {
+		pin := cut(*p.in, p.n)
 		ps := s
 		ps.Sims, ps.RateDraws = 0, 0
 		base, err := timeOnce(func() error { _, err := battery.AnalyzeSeries(ctx, pin, ps, opt); return err })
