@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"slices"
 	"time"
 
 	"github.com/rootshift/rootshift/breaks/batch"
@@ -34,7 +35,11 @@ const (
 	// pilotMinTime is how long a pilot measurement runs at least (it is
 	// repeated up to pilotMaxRepeat times), so that the clock's
 	// resolution and noise do not dominate it.
-	pilotMinTime   = 30 * time.Millisecond
+	pilotMinTime = 30 * time.Millisecond
+	// pilotRepTime is how long the trial's replications run at least (or
+	// all of them, or 4096): long enough to average out short bursts of
+	// other work on a shared machine.
+	pilotRepTime   = 100 * time.Millisecond
 	pilotMaxRepeat = 5
 	// pilotSkipObs: runs without simulations whose series hold fewer
 	// observations than this in total take seconds at most; no pilot.
@@ -90,21 +95,25 @@ type runEstimate struct {
 	rateDraws int
 }
 
-// timeOnce runs f repeatedly until pilotMinTime has passed (at most
-// pilotMaxRepeat times) and returns the mean time of one run.
+// timeOnce runs f three times, and again until pilotMinTime has passed
+// (at most pilotMaxRepeat times), and returns the median time of one run:
+// on a shared machine one run can stall for other work (the mean would
+// follow it) and the shortest is more favourable than the run will be.
 func timeOnce(f func() error) (float64, error) {
 	start := time.Now()
-	n := 0
-	for n < pilotMaxRepeat {
+	var ts []float64
+	for n := 0; n < pilotMaxRepeat; n++ {
+		t0 := time.Now()
 		if err := f(); err != nil {
 			return 0, err
 		}
-		n++
-		if time.Since(start) >= pilotMinTime {
+		ts = append(ts, time.Since(t0).Seconds())
+		if n >= 2 && time.Since(start) >= pilotMinTime {
 			break
 		}
 	}
-	return time.Since(start).Seconds() / float64(n), nil
+	slices.Sort(ts)
+	return ts[len(ts)/2], nil
 }
 
 // pilotCost measures the cost model on the series of the run. It returns
@@ -174,7 +183,7 @@ func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force b
 		pt := costPoint{T: len(pin.Values), base: base}
 		if s.Sims > 0 {
 			// A few replications, more until they take as long as the
-			// base analysis (or all of them are done).
+			// base analysis and pilotRepTime (or all of them are done).
 			for k := 4; ; k *= 4 {
 				k = min(k, s.Sims)
 				ps.Sims = k
@@ -182,8 +191,13 @@ func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force b
 				if err != nil {
 					return nil
 				}
-				if t-base >= max(base, float64(pilotMinTime)/float64(time.Second)) || k == s.Sims || k >= 4096 {
-					pt.rep = max(0, t-base) / float64(k)
+				if t-base >= max(base, pilotRepTime.Seconds()) || k == s.Sims || k >= 4096 {
+					pt.rep = (t - base) / float64(k)
+					if t-base < 0.1*t {
+						// The replications are lost in the noise of the
+						// base analysis: their whole run bounds them.
+						pt.rep = t / float64(k)
+					}
 					break
 				}
 			}
@@ -194,7 +208,10 @@ func pilotCost(ctx context.Context, jobs []seriesJob, s schema.Settings, force b
 			if err != nil {
 				return nil
 			}
-			pt.draw = max(0, t-base)
+			pt.draw = t - base
+			if t-base < 0.1*t {
+				pt.draw = t // lost in the noise: bounded by the whole run
+			}
 		}
 		m.points = append(m.points, pt)
 	}

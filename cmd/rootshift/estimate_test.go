@@ -6,6 +6,7 @@
 package main
 
 import (
+	"bytes"
 	"context"
 	"math"
 	"os"
@@ -82,7 +83,7 @@ func TestEstimateWithinFactor3(t *testing.T) {
 	}
 	took := time.Since(start).Seconds()
 	ratio := est.seconds / took
-	t.Logf("forecast %.2f s, measured %.2f s (ratio %.2f); %s", est.seconds, took, ratio, est.describe(s.Sims))
+	t.Logf("forecast %.2f s, measured %.2f s (ratio %.2f); %s; trial %+v", est.seconds, took, ratio, est.describe(s.Sims), model.points)
 	if ratio < 1.0/3 || ratio > 3 {
 		t.Errorf("forecast %.2f s, measured %.2f s: off by more than a factor of 3", est.seconds, took)
 	}
@@ -91,7 +92,12 @@ func TestEstimateWithinFactor3(t *testing.T) {
 // TestTestRefusesHoursLong: a request estimated above the limit is a usage
 // error that names the estimate and --force, before any output.
 func TestTestRefusesHoursLong(t *testing.T) {
-	code, out, stderr := runCLI(t, "", "test", "../../testdata/demo.csv", "--tests", "za", "--sims", "10000000")
+	// Bounded: a forecast that failed to refuse would otherwise run for hours.
+	ctx, cancel := context.WithTimeout(context.Background(), 30*time.Second)
+	defer cancel()
+	var stdout, errb bytes.Buffer
+	code := run(ctx, []string{"test", "../../testdata/demo.csv", "--tests", "za", "--sims", "10000000"}, strings.NewReader(""), &stdout, &errb)
+	out, stderr := stdout.String(), errb.String()
 	if code != exitUsage || out != "" || !strings.Contains(stderr, "above the limit") || !strings.Contains(stderr, "--force") || !strings.Contains(stderr, "7 series") {
 		t.Errorf("exit %d, stdout %.40q, stderr %q", code, out, stderr)
 	}
