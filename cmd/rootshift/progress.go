@@ -80,9 +80,10 @@ func newMeter(w io.Writer, tty bool, now func() time.Time) *meter {
 		partial: map[int]float64{}, simsDone: map[int]int{}, completed: map[int]map[string]bool{}}
 }
 
-// plan sets the series of the run, their costs (seconds, from the model)
-// and the replications one series simulates.
-func (m *meter) plan(costs []float64, reps int) {
+// plan sets the series of the run, their costs (seconds on one core, from
+// the model), the forecast of the whole run (seconds with its workers) and
+// the replications one series simulates.
+func (m *meter) plan(costs []float64, forecast float64, reps int) {
 	m.mu.Lock()
 	defer m.mu.Unlock()
 	m.total = len(costs)
@@ -91,7 +92,7 @@ func (m *meter) plan(costs []float64, reps int) {
 	for _, c := range costs {
 		m.workTotal += c
 	}
-	m.model = m.workTotal
+	m.model = forecast
 	m.perSeries = reps
 }
 

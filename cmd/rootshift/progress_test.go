@@ -93,7 +93,7 @@ func TestMeterHonest(t *testing.T) {
 	var b bytes.Buffer
 	m := newMeter(&b, false, clk.now)
 	m.every, m.first, m.period = 2, time.Hour, time.Hour
-	m.plan([]float64{1, 1, 1, 1}, 0)
+	m.plan([]float64{1, 1, 1, 1}, 4, 0)
 	for i := 1; i <= 4; i++ {
 		m.step(battery.Progress{Stage: "test", Series: "s" + strconv.Itoa(i), Test: "adf", Index: i, Count: 4})
 		clk.add(10 * time.Second)
@@ -125,7 +125,7 @@ func TestMeterPartialAndWeights(t *testing.T) {
 	m := newMeter(&b, false, clk.now)
 	m.every, m.first, m.period = 1, time.Second, time.Second
 	// Series 1 costs 3 units, series 2 one: one test with 100 replications each.
-	m.plan([]float64{3, 1}, 100)
+	m.plan([]float64{3, 1}, 4, 100)
 	m.step(battery.Progress{Stage: "test", Test: "za", Index: 1})
 	clk.add(15 * time.Second)
 	m.step(battery.Progress{Stage: "simulation", Test: "za", Index: 1, Done: 50, Total: 100})

@@ -270,7 +270,7 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			if len(s.Tests) > 0 {
 				reps = len(s.Tests) * s.Sims
 			}
-			m.plan(est.costs, reps)
+			m.plan(est.costs, est.seconds, reps)
 		} else {
 			m.setTotal(len(jobsList))
 		}
