@@ -59,7 +59,10 @@ func SettingsDescription() []SettingInfo {
 		{Field: "trend", Label: "Deterministic terms", Kind: "choice", Default: "each test's own", AppliesTo: "every test",
 			Choices: []Choice{{"", "automatic: each test takes the terms it needs"}, {"constant", "a constant (series moves around a mean)"},
 				{"linear", "a constant and a linear trend"}, {"none", "none"}}},
+		// The page offers three levels; Validate takes any between Min and
+		// Max (exclusive), as the command line's help says.
 		{Field: "level", Advanced: true, Numeric: true, Label: "Significance level", Kind: "choice", Default: "0.05", AppliesTo: "every decision",
+			Min: bound(0), Max: bound(0.5),
 			Choices: []Choice{{"", "0.05 (5%)"}, {"0.01", "0.01 (1%)"}, {"0.1", "0.10 (10%)"}}},
 		{Field: "lag_rule", Advanced: true, Label: "How to choose the lags", Kind: "choice",
 			Default:   "each method's own rule: BIC for adf and py; MAIC for dfgls, ers and mtests; t-sig for the other break tests; sadf and gsadf use 0 lags",
