@@ -31,7 +31,7 @@ import (
 // base(T) + sims x replication(T) + rate draws x draw(T). The run's time
 // is the sum over series divided by the workers that run at once.
 const (
-	pilotMaxObs = 1000
+	pilotMaxObs = 600
 	// pilotMinTime is how long a pilot measurement runs at least (it is
 	// repeated up to pilotMaxRepeat times), so that the clock's
 	// resolution and noise do not dominate it.
@@ -42,8 +42,13 @@ const (
 	pilotRepTime   = 100 * time.Millisecond
 	pilotMaxRepeat = 5
 	// pilotSkipObs: runs without simulations whose series hold fewer
-	// observations than this in total take seconds at most; no pilot.
-	pilotSkipObs = 50_000
+	// observations than this in total take seconds at most (the slowest
+	// test, ls2, about 4 s at T = 2000 on one core); no pilot.
+	pilotSkipObs = 2000
+	// pilotLongRun: a trial run this long is timed once (a stall of the
+	// machine is small beside it, and the trial must stay short beside
+	// the work).
+	pilotLongRun = 250 * time.Millisecond
 	// estimateLimit is the estimate above which `test` refuses to start
 	// without --force (as `critical` does).
 	estimateLimit = time.Hour
@@ -96,7 +101,8 @@ type runEstimate struct {
 }
 
 // timeOnce runs f three times, and again until pilotMinTime has passed
-// (at most pilotMaxRepeat times), and returns the median time of one run:
+// (at most pilotMaxRepeat times; once when the first run takes
+// pilotLongRun), and returns the median time of one run:
 // on a shared machine one run can stall for other work (the mean would
 // follow it) and the shortest is more favourable than the run will be.
 func timeOnce(f func() error) (float64, error) {
@@ -108,7 +114,7 @@ func timeOnce(f func() error) (float64, error) {
 			return 0, err
 		}
 		ts = append(ts, time.Since(t0).Seconds())
-		if n >= 2 && time.Since(start) >= pilotMinTime {
+		if (n >= 2 && time.Since(start) >= pilotMinTime) || (n == 0 && ts[0] >= pilotLongRun.Seconds()) {
 			break
 		}
 	}
