@@ -59,7 +59,10 @@ type Config struct {
 	Skip map[string]bool
 	// Cache reuses simulated null distributions across series.
 	Cache *battery.DistCache
-	// Progress is called after each series with the running summary.
+	// Progress is called with the running summary after each series (then
+	// Current.Stage is empty) and as the series in work advance (Current
+	// holds the latest test or simulation step, with Current.Index the
+	// series' position in reading order). Calls are serialised.
 	Progress func(Summary)
 	// Stdin is read for the input "-".
 	Stdin io.Reader
@@ -94,6 +97,35 @@ type Summary struct {
 	// Inputs that could not be read at all (each also yields a record).
 	BadInputs int           `json:"bad_inputs"`
 	Elapsed   time.Duration `json:"-"`
+	// The reading position, for an estimate of the series still to come:
+	// InputBytes is the size of every input file (Sized is false when some
+	// input has no size known in advance, such as standard input or a
+	// pipe), BytesRead how much of them the series read so far came from,
+	// and ReadAll is set once every input has been read (Read is then the
+	// number of series in the run).
+	InputBytes, BytesRead int64 `json:"-"`
+	Sized, ReadAll        bool  `json:"-"`
+	// Current is the latest step of a series in work (progress calls
+	// only; see Config.Progress).
+	Current battery.Progress `json:"-"`
+	// Last is the reading index (from 1) of the series just written, in a
+	// progress call after a series.
+	Last int `json:"-"`
+}
+
+// Pending estimates the series still to test or fail: exact once every
+// input is read; before, the series read so far scaled by the share of
+// the input bytes they came from; -1 when no estimate is possible yet.
+func (s Summary) Pending() int {
+	done := s.Tested + s.Failed
+	switch {
+	case s.ReadAll:
+		return max(0, s.Read-s.Skipped-done)
+	case !s.Sized || s.BytesRead <= 0 || s.InputBytes <= 0 || s.Read == 0:
+		return -1
+	}
+	total := float64(s.Read-s.Skipped) * float64(s.InputBytes) / float64(s.BytesRead)
+	return max(0, int(total+0.5)-done, s.Read-s.Skipped-done)
 }
 
 // DefaultMaxObs is the default Config.MaxObs: about 1 GB and several
@@ -259,6 +291,16 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 		}, &sum, &sumMu)
 	}
 	opt := &battery.Options{Cache: cfg.Cache, Workers: 1}
+	var progMu sync.Mutex // serialises cfg.Progress
+	report := func(cur battery.Progress, last int) {
+		sumMu.Lock()
+		s := sum
+		sumMu.Unlock()
+		s.Current, s.Last, s.Elapsed = cur, last, time.Since(start)
+		progMu.Lock()
+		cfg.Progress(s)
+		progMu.Unlock()
+	}
 	maxObs := cfg.MaxObs
 	if maxObs == 0 {
 		maxObs = DefaultMaxObs
@@ -278,8 +320,18 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 			sr = battery.FailedSeries(t.in.Name, t.freq, cfg.Settings, t.fail)
 			sr.Notes = battery.SchemaNotes(t.in.Notes)
 		} else {
+			topt := opt
+			if cfg.Progress != nil {
+				o := *opt
+				index := t.index
+				o.Progress = func(p battery.Progress) {
+					p.Index = index
+					report(p, 0)
+				}
+				topt = &o
+			}
 			var err error
-			sr, err = AnalyzeSeries(ctx, t.in, cfg.Settings, opt)
+			sr, err = AnalyzeSeries(ctx, t.in, cfg.Settings, topt)
 			if err != nil {
 				return Record{}, err
 			}
@@ -302,17 +354,19 @@ func Run(ctx context.Context, cfg Config, sink Sink) (Summary, error) {
 		if err := sink(r); err != nil {
 			return err
 		}
+		index := 0
+		if r.Doc.Source != nil {
+			index = r.Doc.Source.Index
+		}
 		sumMu.Lock()
 		if len(r.Doc.Series[0].Errors) > 0 {
 			sum.Failed++
 		} else {
 			sum.Tested++
 		}
-		s := sum
 		sumMu.Unlock()
 		if cfg.Progress != nil {
-			s.Elapsed = time.Since(start)
-			cfg.Progress(s)
+			report(battery.Progress{}, index)
 		}
 		return nil
 	}
@@ -336,9 +390,31 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 	if err != nil {
 		return err
 	}
-	for _, p := range paths {
+	sizes := make([]int64, len(paths))
+	sized := true
+	var total int64
+	for i, p := range paths {
+		st, err := os.Stat(p)
+		if p == "-" || err != nil || !st.Mode().IsRegular() {
+			sized = false
+			continue
+		}
+		sizes[i] = st.Size()
+		total += st.Size()
+	}
+	mu.Lock()
+	sum.InputBytes, sum.Sized = total, sized
+	mu.Unlock()
+	var base int64 // bytes of the inputs read in full
+	for i, p := range paths {
 		if ctx.Err() != nil {
 			return nil
+		}
+		// at records how far into this input the series emitted come from.
+		at := func(n int64) {
+			mu.Lock()
+			sum.BytesRead = base + min(n, sizes[i])
+			mu.Unlock()
 		}
 		name, canon, fp := p, Canonical(p), ""
 		badInput := func(err error) bool {
@@ -347,8 +423,12 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 			mu.Unlock()
 			return emit(task{source: name, path: canon, fp: fp, in: dataset.Series{Name: filepath.Base(name)}, fail: err})
 		}
+		var counted *countingReader // long and JSON Lines files: bytes consumed
 		emitT := func(t task) bool {
 			t.path, t.fp = canon, fp
+			if counted != nil {
+				at(counted.n)
+			}
 			return emit(t)
 		}
 		var r io.Reader
@@ -369,7 +449,8 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 					f, err = os.Open(p)
 				}
 				if err == nil {
-					br := bufio.NewReaderSize(f, 1<<16)
+					counted = &countingReader{r: f}
+					br := bufio.NewReaderSize(counted, 1<<16)
 					head, _ := br.Peek(4096)
 					if IsOwnOutput(head) {
 						f.Close()
@@ -437,7 +518,14 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 			if err != nil {
 				ok = badInput(err)
 			} else {
-				ok = emitTable(name, t, cfg, emitT)
+				// A wide file is read at once: its series count for equal
+				// shares of its size.
+				n, k := max(1, len(t.Skipped)+len(t.Series)), 0
+				ok = emitTable(name, t, cfg, func(t task) bool {
+					k++
+					at(sizes[i] * int64(k) / int64(n))
+					return emitT(t)
+				})
 			}
 		}
 		if f != nil {
@@ -446,8 +534,25 @@ func produce(ctx context.Context, cfg Config, emit func(task) bool, sum *Summary
 		if !ok {
 			return nil
 		}
+		base += sizes[i]
+		at(0)
 	}
+	mu.Lock()
+	sum.ReadAll = ctx.Err() == nil
+	mu.Unlock()
 	return nil
+}
+
+// countingReader counts the bytes read through it.
+type countingReader struct {
+	r io.Reader
+	n int64
+}
+
+func (c *countingReader) Read(p []byte) (int, error) {
+	n, err := c.r.Read(p)
+	c.n += int64(n)
+	return n, err
 }
 
 // streamTables reads one-series tables from a long or JSON Lines stream.

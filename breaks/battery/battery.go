@@ -18,13 +18,20 @@ import (
 
 // Progress reports how far an analysis has come.
 type Progress struct {
-	// Stage is "test" while tests run.
+	// Stage is "test" when a test starts, "simulation" as its simulated
+	// replications advance and "series" when a series is finished.
 	Stage string
 	// Series is the series being analysed and Test the test running.
 	Series string
 	Test   string
-	// Done of Total series are finished.
+	// Done of Total are finished: series for Stage "series", replications
+	// for Stage "simulation".
 	Done, Total int
+	// Index and Count place the series in the whole run: it is the
+	// Index-th (from 1) of Count series. Analyze sets them; a caller that
+	// runs series one by one (AnalyzeSeries) sets them in its own callback,
+	// and leaves Count 0 while the number of series is not known.
+	Index, Count int
 }
 
 // Options are run-time options that do not change results.
@@ -103,7 +110,15 @@ func Analyze(ctx context.Context, t *dataset.Table, s schema.Settings, opt *Opti
 		inputs = append(inputs, in)
 		done++
 		if opt.Progress != nil {
-			opt.Progress(Progress{Stage: "series", Series: sr.Name, Done: done, Total: total})
+			opt.Progress(Progress{Stage: "series", Series: sr.Name, Done: done, Total: total, Index: done, Count: total})
+		}
+	}
+	// Each series' own progress carries its place in the run.
+	sopt := *opt
+	if opt.Progress != nil {
+		sopt.Progress = func(p Progress) {
+			p.Index, p.Count = done+1, total
+			opt.Progress(p)
 		}
 	}
 	seen := map[string]bool{}
@@ -118,7 +133,7 @@ func Analyze(ctx context.Context, t *dataset.Table, s schema.Settings, opt *Opti
 			if opt.Series != nil {
 				sr, err = opt.Series(ctx, p, s)
 			} else {
-				sr, err = AnalyzeSeries(ctx, p, s, opt)
+				sr, err = AnalyzeSeries(ctx, p, s, &sopt)
 			}
 			if err != nil {
 				return nil, nil, err

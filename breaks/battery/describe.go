@@ -59,7 +59,10 @@ func SettingsDescription() []SettingInfo {
 		{Field: "trend", Label: "Deterministic terms", Kind: "choice", Default: "each test's own", AppliesTo: "every test",
 			Choices: []Choice{{"", "automatic: each test takes the terms it needs"}, {"constant", "a constant (series moves around a mean)"},
 				{"linear", "a constant and a linear trend"}, {"none", "none"}}},
+		// The page offers three levels; Validate takes any between Min and
+		// Max (exclusive), as the command line's help says.
 		{Field: "level", Advanced: true, Numeric: true, Label: "Significance level", Kind: "choice", Default: "0.05", AppliesTo: "every decision",
+			Min: bound(0), Max: bound(0.5),
 			Choices: []Choice{{"", "0.05 (5%)"}, {"0.01", "0.01 (1%)"}, {"0.1", "0.10 (10%)"}}},
 		{Field: "lag_rule", Advanced: true, Label: "How to choose the lags", Kind: "choice",
 			Default:   "each method's own rule: BIC for adf and py; MAIC for dfgls, ers and mtests; t-sig for the other break tests; sadf and gsadf use 0 lags",
@@ -92,6 +95,26 @@ func SettingsDescription() []SettingInfo {
 			Choices: []Choice{{"", "stop with an error naming them"}, {"keep", "test the observations as if consecutive"}, {"split", "test the longest stretch without gaps"}}},
 		{Field: "sheet", Input: true, Advanced: true, Label: "Workbook sheet", Kind: "text", Default: "the first that reads as a table", AppliesTo: "reading an .xlsx file"},
 		{Field: "right_tail", Advanced: true, Label: "Augmented Dickey-Fuller against an explosive alternative (right tail)", Kind: "flag", Default: "off (left tail)", AppliesTo: "adf"},
+	}
+}
+
+// CommandOnlySettings describes the settings that the page sets by other
+// means (the test picker, the series picker) or does not offer (the
+// verdict's error rates recomputed, the explosive tests' minimum window).
+// Together with SettingsDescription they describe every setting but long
+// (the long-table reading, which has its own options); the command line's
+// help is written from both, so that it and the page say the same.
+func CommandOnlySettings() []SettingInfo {
+	return []SettingInfo{
+		{Field: "tests", Label: "Tests to run (comma-separated ids)", Kind: "list", Default: "the default battery and the verdict",
+			AppliesTo: "every series; the ids are those of the test list"},
+		{Field: "verdict", Label: "Also give the verdict when tests are listed", Kind: "flag",
+			Default: "off (without a list of tests the verdict is always given)", AppliesTo: "the verdict"},
+		{Field: "columns", Input: true, Label: "Series to test (comma-separated column names)", Kind: "list", Default: "every numeric column", AppliesTo: "reading the file"},
+		{Field: "min_window", Advanced: true, Label: "Smallest window of the recursive regressions, as a fraction of the sample", Kind: "number",
+			Default: "0.01 + 1.8/√T", Min: bound(0), Max: bound(1), AppliesTo: "sadf, gsadf (strictly between 0 and 1)"},
+		{Field: "rate_draws", Advanced: true, Label: "Recompute the verdict's error rates with this many draws per simulated process", Kind: "integer",
+			Default: "0: the committed tables", Min: bound(0), Max: bound(100_000), AppliesTo: "the verdict's reliability, at the series' length and these settings (slow)"},
 	}
 }
 

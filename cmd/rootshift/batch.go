@@ -15,7 +15,6 @@ import (
 	"github.com/rootshift/rootshift/breaks/battery"
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
-	"github.com/schollz/progressbar/v3"
 	"golang.org/x/term"
 )
 
@@ -76,7 +75,7 @@ func (e *env) batch(args []string) int {
 	fs.StringVar(&csvPath, "csv", "", "also write the summary CSV (one row per series and test) to this `file`")
 	fs.StringVar(&verdictPath, "verdicts", "", "also write the verdict table (CSV, one row per series) to this `file`")
 	fs.BoolVar(&quiet, "quiet", false, "no progress on standard error")
-	fs.IntVar(&progressEvery, "progress-every", 1000, "when standard error is not a terminal: a progress line every `N` series (0: none)")
+	fs.IntVar(&progressEvery, "progress-every", 1000, "when standard error is not a terminal: a progress line every `N` series, and every 30 s after the first 5 (0: none)")
 	fs.IntVar(&cfg.MaxObs, "max-obs", batch.DefaultMaxObs, "a series longer than `N` observations fails alone (about 1 GB and minutes each at the limit; -1: no limit)")
 	fs.BoolVar(&cfg.CompactArrays, "compact-arrays", false, "write candidate paths and surface rows as compact runs (path_compact: first, step, values): about 40% of their size")
 	fs.BoolVar(&cfg.Lean, "lean", false, "leave out plotting data (search paths, sequences): records about a third the size")
@@ -210,36 +209,27 @@ func (e *env) batch(args []string) int {
 			return exitUsage
 		}
 	}
-	var bar *progressbar.ProgressBar
-	switch {
-	case quiet:
-	case isTerminal(e.stderr):
-		bar = progressbar.NewOptions(-1,
-			progressbar.OptionSetWriter(e.stderr),
-			progressbar.OptionSetDescription("series"),
-			progressbar.OptionShowCount(),
-			progressbar.OptionShowIts(),
-			progressbar.OptionSetItsString("series"),
-			progressbar.OptionThrottle(100_000_000),
-			progressbar.OptionClearOnFinish(),
-		)
-		cfg.Progress = func(batch.Summary) { bar.Add(1) }
-	case progressEvery > 0:
-		// A line every N series, and at least every 30 s (the first after
-		// 5 s) so that slow work is announced early.
-		lastLine := time.Now()
-		wait := 5 * time.Second
+	var m *meter
+	if !quiet && (progressEvery > 0 || isTerminal(e.stderr)) {
+		m = newMeter(e.stderr, isTerminal(e.stderr), nil)
+		m.every, m.forecast = progressEvery, true
 		cfg.Progress = func(s batch.Summary) {
-			if n := s.Tested + s.Failed; n%progressEvery == 0 || time.Since(lastLine) >= wait {
-				lastLine, wait = time.Now(), 30*time.Second
-				fmt.Fprintf(e.stderr, "rootshift: progress: %d series done (%d failed), %d read, %.0f s, %.0f series/s\n",
-					n, s.Failed, s.Read, s.Elapsed.Seconds(), float64(n)/s.Elapsed.Seconds())
+			if s.Current.Stage != "" {
+				m.step(s.Current)
+				return
 			}
+			total := -1
+			if p := s.Pending(); p >= 0 {
+				total = s.Tested + s.Failed + p
+			}
+			m.summary(s.Last, s.Tested+s.Failed, s.Failed, total)
 		}
+		stop := m.ticker(time.Second)
+		defer func() { stop(); m.close() }()
 	}
 	sum, err := batch.Run(e.ctx, cfg, g.add)
-	if bar != nil {
-		bar.Finish()
+	if m != nil {
+		m.close()
 	}
 	werr := g.close()
 	if werr != nil && err == nil {

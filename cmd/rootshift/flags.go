@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/rootshift/rootshift/breaks/battery"
 	"github.com/rootshift/rootshift/breaks/report"
 	"github.com/rootshift/rootshift/core/schema"
 )
@@ -58,40 +59,219 @@ func (f listFlag) String() string {
 func (f listFlag) Set(s string) error { *f.p = append(*f.p, splitList(s)...); return nil }
 
 // settingsFlags binds every analysis setting to fs. The names are a
-// contract shared with the schema's settings object and the page.
+// contract shared with the schema's settings object and the page: a flag is
+// the setting's JSON name with "-" for "_". Each flag's help is written from
+// the engine's description of the setting (battery.SettingsDescription, which
+// the page's settings form is built from, and battery.CommandOnlySettings),
+// so that the command line and the page say the same.
 func settingsFlags(fs *flag.FlagSet, s *schema.Settings) {
-	// A word in backquotes is the placeholder PrintDefaults shows after the
-	// flag name ("--tests IDS"); other flags of custom types would show "value".
-	fs.Var(listFlag{&s.Tests}, "tests", "comma-separated test `ids` (default: the default battery and the verdict); \"rootshift tests\" lists them")
-	fs.BoolVar(&s.Verdict, "verdict", false, "also give the verdict when --tests lists tests (without --tests the verdict is always given)")
-	fs.StringVar(&s.Trend, "trend", "", "deterministic terms: none, constant, linear (default auto: each test's own)")
-	fs.Var(intPtr{&s.Lags}, "lags", "fixed augmentation lags `K` (default: chosen by --lag-rule)")
-	fs.StringVar(&s.LagRule, "lag-rule", "", "lag selection: aic, bic, maic, tsig (default: each method's own rule)")
-	fs.Var(intPtr{&s.MaxLags}, "max-lags", "largest lag `K` considered (default: each test's own, Schwert 1989 floor(12(T/100)^(1/4)) or 8 for break tests)")
-	fs.Var(floatPtr{&s.Bandwidth}, "bandwidth", "fixed kernel bandwidth (a `number`) for pp and kpss (default: automatic)")
-	fs.StringVar(&s.Kernel, "kernel", "", "long-run variance kernel: bartlett (default) or qs")
-	fs.StringVar(&s.BandwidthRule, "bandwidth-rule", "", "automatic bandwidth: newey-west (default) or andrews")
-	fs.Float64Var(&s.Level, "level", 0, "significance level for decisions (default 0.05)")
-	fs.StringVar(&s.Shift, "shift", "", "break tests: level (default), slope, level+slope")
-	fs.Float64Var(&s.Trim, "trim", 0, "trimming fraction for break searches (default 0.15)")
-	fs.StringVar(&s.BreakDate, "break-date", "", "known break for p89: a date or an observation number (last observation of the old regime)")
-	fs.StringVar(&s.Window, "window", "", "suspected crisis window FROM:TO (dates or observation numbers)")
-	fs.IntVar(&s.Sims, "sims", 0, "add simulated finite-sample p-values with N replications")
-	fs.IntVar(&s.RateDraws, "rate-draws", 0, "recompute the verdict's error rates at the series' length and these settings with N draws per simulated process (slow); 0: the committed tables")
-	fs.Uint64Var(&s.Seed, "seed", 0, "seed for simulations (same seed, same numbers)")
-	fs.BoolVar(&s.RightTail, "right-tail", false, "adf against an explosive root (right-tailed)")
-	fs.Float64Var(&s.MinWindow, "min-window", 0, "sadf/gsadf minimum window fraction (default 0.01+1.8/sqrt(T))")
-	fs.IntVar(&s.MaxBreaks, "max-breaks", 0, "bp: largest number of breaks (default 5)")
-	fs.StringVar(&s.Outlier, "outlier", "", "meanshift: how the mean shifts enter, innovational (default, gradually) or additive (at once)")
-	fs.IntVar(&s.Shifts, "shifts", 0, "meanshift: number of mean shifts, 1 (default) or 2")
-	fs.Var(listFlag{&s.Columns}, "columns", "comma-separated series (column `names`) to test (default: every numeric column)")
-	fs.StringVar(&s.From, "from", "", "first observation of the sample (date or number)")
-	fs.StringVar(&s.To, "to", "", "last observation of the sample (date or number)")
-	fs.StringVar(&s.Transform, "transform", "", "transform before testing: log, diff, diff2, logdiff")
-	fs.StringVar(&s.DateColumn, "date-column", "", "name of the date column (default: detected)")
-	fs.StringVar(&s.DateFormat, "date-format", "", "read ambiguous dates as dmy (31/01/2005), mdy (01/31/2005), yyyymm, yyyyq or yyyymmdd (default: decided from the column)")
-	fs.StringVar(&s.Gaps, "gaps", "", "calendar gaps inside a series: stop (default, error), keep (test as if consecutive) or split (longest stretch without gaps)")
-	fs.StringVar(&s.Sheet, "sheet", "", "worksheet of an .xlsx file to read (default: the first with data)")
+	desc := map[string]battery.SettingInfo{}
+	for _, d := range describedSettings() {
+		desc[d.Field] = d
+	}
+	bind := func(field string, v flag.Value) {
+		d, ok := desc[field]
+		usage := "(not described: see battery.CommandOnlySettings)"
+		if ok {
+			usage = settingUsage(d)
+		}
+		sv := settingValue{Value: v, placeholder: settingPlaceholder(d)}
+		if b, isBool := v.(boolVal); isBool {
+			fs.Var(settingBool{sv, b}, settingFlag(field), usage)
+			return
+		}
+		fs.Var(sv, settingFlag(field), usage)
+	}
+	bind("tests", listFlag{&s.Tests})
+	bind("verdict", boolVal{&s.Verdict})
+	bind("trend", strVal{&s.Trend})
+	bind("lags", intPtr{&s.Lags})
+	bind("lag_rule", strVal{&s.LagRule})
+	bind("max_lags", intPtr{&s.MaxLags})
+	bind("bandwidth", floatPtr{&s.Bandwidth})
+	bind("kernel", strVal{&s.Kernel})
+	bind("bandwidth_rule", strVal{&s.BandwidthRule})
+	bind("level", floatVal{&s.Level})
+	bind("shift", strVal{&s.Shift})
+	bind("trim", floatVal{&s.Trim})
+	bind("break_date", strVal{&s.BreakDate})
+	bind("window", strVal{&s.Window})
+	bind("sims", intVal{&s.Sims})
+	bind("rate_draws", intVal{&s.RateDraws})
+	bind("seed", uintVal{&s.Seed})
+	bind("right_tail", boolVal{&s.RightTail})
+	bind("min_window", floatVal{&s.MinWindow})
+	bind("max_breaks", intVal{&s.MaxBreaks})
+	bind("outlier", strVal{&s.Outlier})
+	bind("shifts", intVal{&s.Shifts})
+	bind("columns", listFlag{&s.Columns})
+	bind("from", strVal{&s.From})
+	bind("to", strVal{&s.To})
+	bind("transform", strVal{&s.Transform})
+	bind("date_column", strVal{&s.DateColumn})
+	bind("date_format", strVal{&s.DateFormat})
+	bind("gaps", strVal{&s.Gaps})
+	bind("sheet", strVal{&s.Sheet})
+}
+
+// describedSettings is every described setting: the page's and the
+// command line's own.
+func describedSettings() []battery.SettingInfo {
+	return append(battery.SettingsDescription(), battery.CommandOnlySettings()...)
+}
+
+// settingFlag is the flag of a setting: its JSON name with "-" for "_".
+func settingFlag(field string) string { return strings.ReplaceAll(field, "_", "-") }
+
+// settingUsage is a setting's flag help, written from its description:
+// the label, the default, the accepted values with their meaning, the
+// range, and what the setting applies to.
+func settingUsage(d battery.SettingInfo) string {
+	var b strings.Builder
+	b.WriteString(d.Label)
+	b.WriteString("\ndefault: " + d.Default)
+	if len(d.Choices) > 0 {
+		b.WriteString("\nvalues:")
+		for _, c := range d.Choices {
+			if c.Value != "" { // the default is said above
+				fmt.Fprintf(&b, "\n  %s  %s", c.Value, c.Label)
+			}
+		}
+	}
+	num := func(x *float64) string { return strconv.FormatFloat(*x, 'f', -1, 64) }
+	switch {
+	case d.Min != nil && d.Max != nil:
+		fmt.Fprintf(&b, "\nrange: %s to %s", num(d.Min), num(d.Max))
+	case d.Min != nil:
+		fmt.Fprintf(&b, "\nrange: %s or more", num(d.Min))
+	}
+	b.WriteString("\napplies to: " + d.AppliesTo)
+	return b.String()
+}
+
+// settingPlaceholder is the word the help shows after a setting's flag.
+func settingPlaceholder(d battery.SettingInfo) string {
+	switch d.Field {
+	case "tests":
+		return "ids"
+	case "columns":
+		return "names"
+	case "window":
+		return "FROM:TO"
+	case "from", "to", "break_date":
+		return "date"
+	case "lags", "max_lags":
+		return "K"
+	case "date_column", "sheet":
+		return "name"
+	}
+	switch d.Kind {
+	case "integer":
+		return "N"
+	case "number":
+		return "x"
+	case "choice":
+		return "choice"
+	case "flag":
+		return ""
+	}
+	return "text"
+}
+
+// settingValue is a setting's flag value with its help placeholder.
+type settingValue struct {
+	flag.Value
+	placeholder string
+}
+
+func (v settingValue) Placeholder() string { return v.placeholder }
+
+// settingBool is a setting's on/off flag (no value after it).
+type settingBool struct {
+	settingValue
+	boolVal
+}
+
+func (v settingBool) Set(s string) error { return v.boolVal.Set(s) }
+func (v settingBool) String() string     { return v.boolVal.String() }
+func (settingBool) IsBoolFlag() bool     { return true }
+
+type strVal struct{ p *string }
+
+func (v strVal) String() string {
+	if v.p == nil {
+		return ""
+	}
+	return *v.p
+}
+func (v strVal) Set(s string) error { *v.p = s; return nil }
+
+type boolVal struct{ p *bool }
+
+func (v boolVal) String() string {
+	if v.p == nil {
+		return "false"
+	}
+	return strconv.FormatBool(*v.p)
+}
+func (v boolVal) Set(s string) error {
+	b, err := strconv.ParseBool(s)
+	if err != nil {
+		return fmt.Errorf("want true or false, got %q", s)
+	}
+	*v.p = b
+	return nil
+}
+
+type intVal struct{ p *int }
+
+func (v intVal) String() string {
+	if v.p == nil {
+		return "0"
+	}
+	return strconv.Itoa(*v.p)
+}
+func (v intVal) Set(s string) error {
+	x, err := strconv.Atoi(s)
+	if err != nil {
+		return fmt.Errorf("want a whole number, got %q", s)
+	}
+	*v.p = x
+	return nil
+}
+
+type uintVal struct{ p *uint64 }
+
+func (v uintVal) String() string {
+	if v.p == nil {
+		return "0"
+	}
+	return strconv.FormatUint(*v.p, 10)
+}
+func (v uintVal) Set(s string) error {
+	x, err := strconv.ParseUint(s, 10, 64)
+	if err != nil {
+		return fmt.Errorf("want a whole number from 0, got %q", s)
+	}
+	*v.p = x
+	return nil
+}
+
+type floatVal struct{ p *float64 }
+
+func (v floatVal) String() string {
+	if v.p == nil {
+		return "0"
+	}
+	return strconv.FormatFloat(*v.p, 'g', -1, 64)
+}
+func (v floatVal) Set(s string) error {
+	x, err := strconv.ParseFloat(s, 64)
+	if err != nil {
+		return fmt.Errorf("want a number, got %q", s)
+	}
+	*v.p = x
+	return nil
 }
 
 // parseInterleaved parses flags that may come before or after positional
@@ -136,6 +316,9 @@ func newFlagSet(name string, stdout io.Writer, usage string) *flag.FlagSet {
 		b.WriteString(usage + "\n\nOptions:\n")
 		fs.VisitAll(func(f *flag.Flag) {
 			placeholder, text := flag.UnquoteUsage(f)
+			if p, ok := f.Value.(interface{ Placeholder() string }); ok {
+				placeholder = p.Placeholder()
+			}
 			dash := "--"
 			if len(f.Name) == 1 {
 				dash = "-" // -o, -j

@@ -29,9 +29,12 @@ type outputOpts struct {
 	progress bool
 	quiet    bool
 	jobs     int
-	indent   bool
-	compact  bool
-	force    bool
+	// progressEvery: a plain progress line every N series when standard
+	// error is not a terminal (0: none).
+	progressEvery int
+	indent        bool
+	compact       bool
+	force         bool
 	// compactArrays writes paths as schema.Run (JSON output).
 	compactArrays bool
 }
@@ -42,13 +45,14 @@ func outputFlags(fs *flag.FlagSet, o *outputOpts) {
 	fs.BoolVar(&o.indent, "indent", false, "JSON: indented (the default when standard output is a terminal)")
 	fs.BoolVar(&o.compact, "compact", false, "JSON: one line (the default when the output is a file or a pipe)")
 	fs.BoolVar(&o.compactArrays, "compact-arrays", false, "JSON: candidate paths and surface rows as compact runs (path_compact: first, step, values)")
-	fs.BoolVar(&o.force, "force", false, fmt.Sprintf("test series longer than %d observations (slow and memory-hungry: about 1 GB and minutes each)", batch.DefaultMaxObs))
+	fs.BoolVar(&o.force, "force", false, fmt.Sprintf("test series longer than %d observations (slow and memory-hungry: about 1 GB and minutes each), and start work estimated above %s", batch.DefaultMaxObs, shortDuration(estimateLimit.Seconds())))
+	fs.IntVar(&o.progressEvery, "progress-every", 1000, "when standard error is not a terminal: a progress line every `N` series, and every 30 s after the first 5 (0: none)")
 }
 
 func (e *env) test(args []string) int {
 	var s schema.Settings
 	var o outputOpts
-	fs := newFlagSet("test", e.stdout, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).\nThe series are analysed in parallel; the output is in input order, the same for any -j.\n\nExit status: 0 every series tested, 1 some failed, 2 usage errors, 3 the output could not\nbe written, 4 nothing to process (empty input), 130 interrupted, 143 terminated (SIGTERM).")
+	fs := newFlagSet("test", e.stdout, "Usage: rootshift test [options] FILE...\n\nTests every numeric column of each file (CSV, TSV, semicolon-separated, .xlsx; \"-\" is standard input).\nThe series are analysed in parallel; the output is in input order, the same for any -j.\n\nExit status: 0 every series tested, 1 some failed, 2 usage errors, 3 the output could not\nbe written, 4 nothing to process (empty input), 130 interrupted, 143 terminated (SIGTERM); after an\ninterruption the series finished before it are written.\n\nWork estimated above 3 s is announced on standard error, and work above an hour needs --force.")
 	settingsFlags(fs, &s)
 	fs.BoolVar(&o.json, "json", false, "print the JSON document (schema rootshift.results/v2); same as --format json")
 	fs.StringVar(&o.format, "format", "table", "output: "+strings.Join(report.Formats, ", "))
@@ -168,9 +172,6 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 		}
 	}
 	opt := &battery.Options{Workers: 1}
-	if !o.quiet && s.Sims > 0 && isTerminal(e.stderr) { // "\r" progress: terminals only
-		opt.Progress = progressPrinter(e.stderr)
-	}
 	// Every file is read and parsed before the analysis starts, so that a
 	// bad file is a usage error before any output.
 	var parsed []parsedFile
@@ -255,6 +256,36 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	if len(jobsList) == 1 {
 		opt.Workers = 0 // one series: its simulations use every core
 	}
+	// The forecast: announced when long, refused above the limit unless
+	// --force; it also weighs the series for the time left.
+	var est *runEstimate
+	if model := pilotCost(e.ctx, jobsList, s, o.force); model != nil {
+		r := estimateRun(model, jobsList, poolJobs(o.jobs), o.force)
+		est = &r
+		if r.seconds > estimateLimit.Seconds() && !o.force {
+			return e.usageExit(fmt.Errorf("%s, above the limit of %s: fewer --sims, fewer or shorter series (--columns, --from, --to), or --force to run anyway",
+				r.describe(s.Sims), shortDuration(estimateLimit.Seconds())))
+		}
+		if !o.quiet && r.seconds > announceAbove.Seconds() {
+			fmt.Fprintf(e.stderr, "rootshift: %s\n", r.describe(s.Sims))
+		}
+	}
+	var m *meter
+	if !o.quiet && o.progressEvery >= 0 {
+		m = newMeter(e.stderr, isTerminal(e.stderr), nil)
+		m.every = o.progressEvery
+		if est != nil {
+			reps := 0
+			if len(s.Tests) > 0 {
+				reps = len(s.Tests) * s.Sims
+			}
+			m.plan(est.costs, est.seconds, reps)
+		} else {
+			m.setTotal(len(jobsList))
+		}
+		stop := m.ticker(time.Second)
+		defer func() { stop(); m.close() }()
+	}
 	// Output: JSON streams series by series; compact unless indented on
 	// request or shown on a terminal.
 	var w io.Writer = bufio.NewWriterSize(e.stdout, 1<<16)
@@ -286,8 +317,6 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	}
 	var inputs []dataset.Series
 	failed := 0
-	start := time.Now()
-	announced := false
 	produce := func(ctx context.Context, emit func(int) bool) error {
 		for i := range jobsList {
 			if !emit(i) {
@@ -309,11 +338,26 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			sr := battery.FailedSeries(j.in.Name, j.freq, s, j.fail)
 			sr.Name = j.name
 			sr.Notes = battery.WithSourceNotes(j.source, battery.SchemaNotes(j.in.Notes))
+			if m != nil {
+				m.finished(i+1, true)
+			}
 			return done{sr, dataset.Series{Name: j.name, Column: j.in.Column}}, nil
 		}
-		sr, err := batch.AnalyzeSeries(ctx, j.in, s, opt)
+		jopt := opt
+		if m != nil {
+			o := *opt
+			o.Progress = func(p battery.Progress) {
+				p.Index, p.Count = i+1, len(jobsList)
+				m.step(p)
+			}
+			jopt = &o
+		}
+		sr, err := batch.AnalyzeSeries(ctx, j.in, s, jopt)
 		if err != nil {
 			return done{}, err
+		}
+		if m != nil {
+			m.finished(i+1, len(sr.Errors) > 0)
 		}
 		sr.Name = j.name
 		sr.Notes = battery.WithSourceNotes(j.source, sr.Notes)
@@ -330,12 +374,6 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 		if len(d.sr.Errors) > 0 {
 			failed++
 		}
-		if !announced && !o.quiet && n == 1 && len(jobsList) > 1 {
-			announced = true
-			if est := time.Since(start).Seconds() * float64(len(jobsList)-1) / float64(max(1, poolJobs(o.jobs))); est > 5 {
-				fmt.Fprintf(e.stderr, "rootshift: %d series; estimated %.0f s more (from the first series)\n", len(jobsList), est)
-			}
-		}
 		if stream != nil {
 			return stream.Series(&d.sr)
 		}
@@ -347,11 +385,13 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	if err == nil && e.ctx.Err() != nil {
 		err = core.ErrCancelled
 	}
+	cancelled := err != nil && (errors.Is(err, core.ErrCancelled) || e.ctx.Err() != nil)
+	if cancelled {
+		// The series finished before the signal are written, as a whole
+		// document, below.
+		err = nil
+	}
 	if err != nil {
-		if errors.Is(err, core.ErrCancelled) || e.ctx.Err() != nil {
-			e.errorf("cancelled")
-			return e.cancelStatus()
-		}
 		var ue *battery.UsageError
 		if errors.As(err, &ue) {
 			e.errorf("%v", err)
@@ -382,6 +422,17 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	if werr != nil {
 		e.errorf("writing the output: %v", werr)
 		return exitOutput
+	}
+	if cancelled {
+		if m != nil {
+			m.close()
+		}
+		cause := context.Cause(e.ctx)
+		if cause == nil {
+			cause = core.ErrCancelled
+		}
+		e.errorf("%v: the output holds the %d of %d series finished before it", cause, n, len(jobsList))
+		return e.cancelStatus()
 	}
 	if after != nil {
 		if err := after(doc, inputs); err != nil {
@@ -460,23 +511,6 @@ func (e *env) readInput(f string) (string, []byte, error) {
 		return f, nil, err
 	}
 	return f, b, nil
-}
-
-func progressPrinter(w io.Writer) func(battery.Progress) {
-	last := -1
-	return func(p battery.Progress) {
-		if p.Stage != "simulation" || p.Total == 0 {
-			return
-		}
-		pct := 100 * p.Done / p.Total
-		if pct/10 != last/10 || p.Done == p.Total {
-			last = pct
-			fmt.Fprintf(w, "\rsimulating %s for %s: %3d%%", p.Test, p.Series, pct)
-			if p.Done == p.Total {
-				fmt.Fprintln(w)
-			}
-		}
-	}
 }
 
 func (e *env) listTests() int {
