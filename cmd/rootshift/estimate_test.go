@@ -96,7 +96,7 @@ func TestTestRefusesHoursLong(t *testing.T) {
 	ctx, cancel := context.WithTimeout(context.Background(), 30*time.Second)
 	defer cancel()
 	var stdout, errb bytes.Buffer
-	code := run(ctx, []string{"test", "../../testdata/demo.csv", "--tests", "za", "--sims", "10000000"}, strings.NewReader(""), &stdout, &errb)
+	code := run(ctx, []string{"test", "../../testdata/demo.csv", "--tests", "za,pio,p89", "--sims", "10000000"}, strings.NewReader(""), &stdout, &errb)
 	out, stderr := stdout.String(), errb.String()
 	if code != exitUsage || out != "" || !strings.Contains(stderr, "above the limit") || !strings.Contains(stderr, "--force") || !strings.Contains(stderr, "7 series") {
 		t.Errorf("exit %d, stdout %.40q, stderr %q", code, out, stderr)

@@ -9,6 +9,7 @@ package main
 
 import (
 	"bufio"
+	"fmt"
 	"math/rand/v2"
 	"os"
 	"os/exec"
@@ -16,6 +17,7 @@ import (
 	"runtime"
 	"strconv"
 	"strings"
+	"sync/atomic"
 	"syscall"
 	"testing"
 	"time"
@@ -62,7 +64,11 @@ func writeWideWalks(t testing.TB, path string, rows, cols int) int64 {
 
 // runChild runs the command in a child process (this test binary acting
 // as the command) and returns its exit status, peak resident memory in MB
-// and wall time.
+// and wall time. On Linux the peak is the child's VmHWM, read from
+// /proc/PID/status while it runs: the rusage of a child started by Go's
+// vfork-style exec also holds the parent's peak from before the exec (the
+// kernel records the old address space's high-water mark at exec), so a
+// test binary that grew in earlier tests would be charged to the child.
 func runChild(t *testing.T, args ...string) (int, float64, time.Duration) {
 	t.Helper()
 	cmd := exec.Command(os.Args[0], args...)
@@ -70,18 +76,49 @@ func runChild(t *testing.T, args ...string) (int, float64, time.Duration) {
 	var stderr strings.Builder
 	cmd.Stderr = &stderr
 	start := time.Now()
-	err := cmd.Run()
+	if err := cmd.Start(); err != nil {
+		t.Fatalf("%v: %v", args, err)
+	}
+	status := fmt.Sprintf("/proc/%d/status", cmd.Process.Pid)
+	var hwm atomic.Int64 // kB
+	stop := make(chan struct{})
+	polled := make(chan struct{})
+	go func() {
+		defer close(polled)
+		for {
+			if b, err := os.ReadFile(status); err == nil {
+				for _, line := range strings.Split(string(b), "\n") {
+					if f := strings.Fields(line); len(f) >= 2 && f[0] == "VmHWM:" {
+						if kb, err := strconv.ParseInt(f[1], 10, 64); err == nil && kb > hwm.Load() {
+							hwm.Store(kb)
+						}
+					}
+				}
+			}
+			select {
+			case <-stop:
+				return
+			case <-time.After(10 * time.Millisecond):
+			}
+		}
+	}()
+	err := cmd.Wait()
+	close(stop)
+	<-polled
 	wall := time.Since(start)
 	if cmd.ProcessState == nil {
 		t.Fatalf("%v: %v", args, err)
 	}
-	ru, ok := cmd.ProcessState.SysUsage().(*syscall.Rusage)
-	if !ok {
-		t.Skip("no resource usage on this system")
-	}
-	mb := float64(ru.Maxrss) / 1024 // kilobytes on linux
-	if runtime.GOOS == "darwin" {
-		mb = float64(ru.Maxrss) / 1e6 // bytes
+	mb := float64(hwm.Load()) / 1024
+	if mb == 0 {
+		ru, ok := cmd.ProcessState.SysUsage().(*syscall.Rusage)
+		if !ok {
+			t.Skip("no resource usage on this system")
+		}
+		mb = float64(ru.Maxrss) / 1024 // kilobytes on linux
+		if runtime.GOOS == "darwin" {
+			mb = float64(ru.Maxrss) / 1e6 // bytes
+		}
 	}
 	if code := cmd.ProcessState.ExitCode(); code != 0 {
 		t.Fatalf("%v: exit %d: %s", args, code, stderr.String())
