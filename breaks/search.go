@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"strings"
+	"sync"
 
 	"github.com/rootshift/rootshift/core"
 )
@@ -229,6 +230,20 @@ type Searcher struct {
 	a, b, z  []float64 // scratch of pfactor.build
 	nrm      core.Normal
 	path     []Candidate
+}
+
+// searcherPool keeps the scratch of finished searches for the next series:
+// a fresh Searcher allocates and clears about (T+2)·(k+4)·24 bytes, which in
+// a run over many series costs as much as the candidate loop itself.
+var searcherPool = sync.Pool{New: func() any { return new(Searcher) }}
+
+// getSearcher returns a Searcher from the pool; putSearcher returns it once
+// its path is no longer read.
+func getSearcher() *Searcher { return searcherPool.Get().(*Searcher) }
+
+func putSearcher(w *Searcher) {
+	w.path = w.path[:0]
+	searcherPool.Put(w)
 }
 
 // Column codes of a system: base columns are >= 0, break columns negative.
