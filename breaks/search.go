@@ -820,37 +820,13 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
 	if f.rank < K {
 		return Candidate{}, fitSkip
 	}
-	w.residualise(f, nb, K)
-	np := w.p + 1
-	for i := 0; i < nb; i++ {
-		for j := 0; j <= i; j++ {
-			w.sbb[i*3+j] = w.bb[i*3+j]
-		}
-		w.sby[i] = w.bv[i*np+w.p]
-		w.xb[i] = w.bv[i*np+2]
-	}
-	if nb == 1 {
-		// The same updates with scalar accumulators: the index arithmetic of
-		// the general loop costs several times more under WebAssembly.
-		wb, ry, rx := w.wb[:K], f.ry[:K], f.rx[:K]
-		s00, sy, xb := w.sbb[0], w.sby[0], w.xb[0]
-		for r, wi := range wb {
-			s00 -= wi * wi
-			sy -= wi * ry[r]
-			xb -= wi * rx[r]
-		}
-		w.sbb[0], w.sby[0], w.xb[0] = s00, sy, xb
-	} else {
-		for r := 0; r < K; r++ {
-			for i := 0; i < nb; i++ {
-				wi := w.wb[i*w.maxK+r]
-				for j := 0; j <= i; j++ {
-					w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
-				}
-				w.sby[i] -= wi * f.ry[r]
-				w.xb[i] -= wi * f.rx[r]
-			}
-		}
+	switch nb {
+	case 1:
+		w.finalResid1(f)
+	case 2:
+		w.finalResid2(f)
+	default:
+		w.finalResid(f, nb)
 	}
 	n := w.T - k - 1
 	Ktot := K + nb + 1
@@ -859,6 +835,12 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
 		t2, sign, _, st := w.tLast(nb, f.xxRes, f.xyRes, f.yyRes, f.yy, n-Ktot)
 		return Candidate{TB: tb, Lags: k, NObs: n, Alpha: math.NaN(), TAlpha: sign * math.Sqrt(t2),
 			TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}, st
+	}
+	switch nb {
+	case 1:
+		return w.final1(tb, k, n, Ktot, f)
+	case 2:
+		return w.final2(tb, k, n, Ktot, f)
 	}
 	tA, ssr, st := w.smallSystem(nb, w.xb[:nb], f.xxRes, f.xyRes, f.yyRes, f.yy, n, Ktot)
 	if st != fitOK {
@@ -880,6 +862,238 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
 		}
 	}
 	return c, fitOK
+}
+
+// finalResid residualises the nb break columns on the final factor f and
+// sets the residual cross-products w.sbb, w.sby (with Δy) and w.xb (with
+// y_{t-1}): the general form of finalResid1 and finalResid2.
+func (w *Searcher) finalResid(f *pfactor, nb int) {
+	K := len(f.codes)
+	w.residualise(f, nb, K)
+	np := w.p + 1
+	for i := 0; i < nb; i++ {
+		for j := 0; j <= i; j++ {
+			w.sbb[i*3+j] = w.bb[i*3+j]
+		}
+		w.sby[i] = w.bv[i*np+w.p]
+		w.xb[i] = w.bv[i*np+2]
+	}
+	for r := 0; r < K; r++ {
+		for i := 0; i < nb; i++ {
+			wi := w.wb[i*w.maxK+r]
+			for j := 0; j <= i; j++ {
+				w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
+			}
+			w.sby[i] -= wi * f.ry[r]
+			w.xb[i] -= wi * f.rx[r]
+		}
+	}
+}
+
+// finalResid1 is finalResid for one break column, written out with
+// scalars and with the forward solve of residualise in the same loop: the
+// same operations in the same order (the results are equal bit for bit,
+// TestFinalFastEqualsGeneral), without the index arithmetic, bounds checks
+// and stores of the general loops, which cost several times more under
+// WebAssembly than natively.
+func (w *Searcher) finalResid1(f *pfactor) {
+	K := len(f.codes)
+	np := w.p + 1
+	codes, d, linv, ry, rx := f.codes[:K], f.d[:K], f.linv[:K], f.ry[:K], f.rx[:K]
+	v0 := w.bv[:np]
+	o0 := w.wb[:K]
+	s00, y0, x0 := w.bb[0], v0[w.p], v0[2]
+	for i, c := range codes {
+		row := f.l[i*K : i*K+i]
+		p0 := o0[:len(row)]
+		a0 := 0.0
+		for j, l := range row {
+			a0 += l * p0[j]
+		}
+		r0 := (v0[c]*d[i] - a0) * linv[i]
+		o0[i] = r0
+		s00 -= r0 * r0
+		y0 -= r0 * ry[i]
+		x0 -= r0 * rx[i]
+	}
+	w.sbb[0], w.sby[0], w.xb[0] = s00, y0, x0
+}
+
+// finalResid2 is finalResid for two break columns (see finalResid1).
+func (w *Searcher) finalResid2(f *pfactor) {
+	K := len(f.codes)
+	np := w.p + 1
+	codes, d, linv, ry, rx := f.codes[:K], f.d[:K], f.linv[:K], f.ry[:K], f.rx[:K]
+	v0, v1 := w.bv[:np], w.bv[np:2*np]
+	o0, o1 := w.wb[:K], w.wb[w.maxK:w.maxK+K]
+	s00, s10, s11 := w.bb[0], w.bb[3], w.bb[4]
+	y0, y1, x0, x1 := v0[w.p], v1[w.p], v0[2], v1[2]
+	for i, c := range codes {
+		row := f.l[i*K : i*K+i]
+		p0, p1 := o0[:len(row)], o1[:len(row)]
+		a0, a1 := 0.0, 0.0
+		for j, l := range row {
+			a0 += l * p0[j]
+			a1 += l * p1[j]
+		}
+		di, li := d[i], linv[i]
+		r0 := (v0[c]*di - a0) * li
+		r1 := (v1[c]*di - a1) * li
+		o0[i], o1[i] = r0, r1
+		s00 -= r0 * r0
+		s10 -= r1 * r0
+		s11 -= r1 * r1
+		y0 -= r0 * ry[i]
+		y1 -= r1 * ry[i]
+		x0 -= r0 * rx[i]
+		x1 -= r1 * rx[i]
+	}
+	w.sbb[0], w.sbb[3], w.sbb[4] = s00, s10, s11
+	w.sby[0], w.sby[1], w.xb[0], w.xb[1] = y0, y1, x0, x1
+}
+
+// final1 is smallSystem and the t-ratios of final for one break column,
+// with core.Normal's Jacobi-scaled Cholesky solve and InvDiag written out
+// for the 2×2 system [break, y_{t-1}]: the same operations in the same
+// order, so the candidate is equal bit for bit to the general path's
+// (TestFinalFastEqualsGeneral).
+func (w *Searcher) final1(tb, k, n, Ktot int, f *pfactor) (Candidate, fitStatus) {
+	a00, b0 := w.sbb[0], w.sby[0]
+	if !(a00 > 1e-10*w.bb[0]) {
+		return Candidate{}, fitSkip
+	}
+	a10, a11, b1, yy := w.xb[0], f.xxRes, f.xyRes, f.yyRes
+	if !(a00 > 0) || !(a11 > 0) {
+		return Candidate{}, fitSkip
+	}
+	d0, d1 := 1/math.Sqrt(a00), 1/math.Sqrt(a11)
+	s := a00*d0*d0 - 0.0
+	if s <= 1e-12 {
+		return Candidate{}, fitSkip
+	}
+	l00 := math.Sqrt(s)
+	l10 := (a10*d1*d0 - 0.0) / l00
+	s = a11*d1*d1 - l10*l10
+	if s <= 1e-12 {
+		return Candidate{}, fitSkip
+	}
+	l11 := math.Sqrt(s)
+	z0 := b0 * d0 / l00
+	z1 := (b1*d1 - l10*z0) / l11
+	c1 := z1 / l11
+	c0 := (z0 - l10*c1) / l00
+	ssr := yy - z0*z0 - z1*z1
+	c0 *= d0
+	c1 *= d1
+	if ssr < 0 {
+		ssr = 0
+	}
+	df := float64(n - Ktot)
+	if n-Ktot <= 0 {
+		return Candidate{}, fitSkip
+	}
+	if ssr <= ExactFitTol*f.yy {
+		return Candidate{}, fitExact
+	}
+	// InvDiag(1) and InvDiag(0).
+	w1 := 1 / l11
+	inv1 := w1 * w1 * d1 * d1
+	u0 := 1 / l00
+	u1 := (0 - l10*u0) / l11
+	inv0 := (u0*u0 + u1*u1) * d0 * d0
+	tA := c1 / math.Sqrt(ssr/df*inv1)
+	if math.IsNaN(tA) || math.IsInf(tA, 0) {
+		return Candidate{}, fitSkip
+	}
+	c := Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + c1, TAlpha: tA,
+		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
+	w.setBreakT(&c, 0, c0/math.Sqrt(ssr/df*inv0))
+	return c, fitOK
+}
+
+// final2 is final1 for two break columns: the 3×3 system [break 1,
+// break 2, y_{t-1}] written out.
+func (w *Searcher) final2(tb, k, n, Ktot int, f *pfactor) (Candidate, fitStatus) {
+	a00, a10, a11 := w.sbb[0], w.sbb[3], w.sbb[4]
+	if !(a00 > 1e-10*w.bb[0]) || !(a11 > 1e-10*w.bb[4]) {
+		return Candidate{}, fitSkip
+	}
+	a20, a21, a22 := w.xb[0], w.xb[1], f.xxRes
+	b0, b1, b2, yy := w.sby[0], w.sby[1], f.xyRes, f.yyRes
+	if !(a00 > 0) || !(a11 > 0) || !(a22 > 0) {
+		return Candidate{}, fitSkip
+	}
+	d0, d1, d2 := 1/math.Sqrt(a00), 1/math.Sqrt(a11), 1/math.Sqrt(a22)
+	s := a00*d0*d0 - 0.0
+	if s <= 1e-12 {
+		return Candidate{}, fitSkip
+	}
+	l00 := math.Sqrt(s)
+	l10 := (a10*d1*d0 - 0.0) / l00
+	l20 := (a20*d2*d0 - 0.0) / l00
+	s = a11*d1*d1 - l10*l10
+	if s <= 1e-12 {
+		return Candidate{}, fitSkip
+	}
+	l11 := math.Sqrt(s)
+	l21 := (a21*d2*d1 - (0 + l20*l10)) / l11 // "0 +": the sum of core.Normal, signed zeros included
+	s = a22*d2*d2 - (l20*l20 + l21*l21)
+	if s <= 1e-12 {
+		return Candidate{}, fitSkip
+	}
+	l22 := math.Sqrt(s)
+	z0 := b0 * d0 / l00
+	z1 := (b1*d1 - l10*z0) / l11
+	z2 := (b2*d2 - l20*z0 - l21*z1) / l22
+	c2 := z2 / l22
+	c1 := (z1 - l21*c2) / l11
+	c0 := (z0 - l10*c1 - l20*c2) / l00
+	ssr := yy - z0*z0 - z1*z1 - z2*z2
+	c0 *= d0
+	c1 *= d1
+	c2 *= d2
+	if ssr < 0 {
+		ssr = 0
+	}
+	df := float64(n - Ktot)
+	if n-Ktot <= 0 {
+		return Candidate{}, fitSkip
+	}
+	if ssr <= ExactFitTol*f.yy {
+		return Candidate{}, fitExact
+	}
+	// InvDiag(2), InvDiag(0) and InvDiag(1).
+	w2 := 1 / l22
+	inv2 := w2 * w2 * d2 * d2
+	u0 := 1 / l00
+	u1 := (0 - l10*u0) / l11
+	u2 := (0 - l20*u0 - l21*u1) / l22
+	inv0 := (u0*u0 + u1*u1 + u2*u2) * d0 * d0
+	v1 := 1 / l11
+	v2 := (0 - l21*v1) / l22
+	inv1 := (v1*v1 + v2*v2) * d1 * d1
+	tA := c2 / math.Sqrt(ssr/df*inv2)
+	if math.IsNaN(tA) || math.IsInf(tA, 0) {
+		return Candidate{}, fitSkip
+	}
+	c := Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + c2, TAlpha: tA,
+		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
+	s2 := ssr / df
+	w.setBreakT(&c, 0, c0/math.Sqrt(s2*inv0))
+	w.setBreakT(&c, 1, c1/math.Sqrt(s2*inv1))
+	return c, fitOK
+}
+
+// setBreakT stores the t-ratio t of break column i in c.
+func (w *Searcher) setBreakT(c *Candidate, i int, t float64) {
+	switch w.bcode[i] {
+	case codeDU:
+		c.TLevel = t
+	case codeDT:
+		c.TSlope = t
+	default:
+		c.TDummy = t
+	}
 }
 
 // cholPrefix factors the Jacobi-scaled K×K matrix D A D (lower triangle of
