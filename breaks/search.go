@@ -292,33 +292,86 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		a1, at := s1[(t+1)*np:(t+2)*np], st[(t+1)*np:(t+2)*np]
 		b1, bt := s1[t*np:(t+1)*np], st[t*np:(t+1)*np]
 		a1, at, b1, bt = a1[:len(row)], at[:len(row)], b1[:len(row)], bt[:len(row)]
+		for len(row) >= 4 { // unrolled by four (see searchDot)
+			b1[0], bt[0] = a1[0]+row[0], at[0]+tt*row[0]
+			b1[1], bt[1] = a1[1]+row[1], at[1]+tt*row[1]
+			b1[2], bt[2] = a1[2]+row[2], at[2]+tt*row[2]
+			b1[3], bt[3] = a1[3]+row[3], at[3]+tt*row[3]
+			n := len(row)
+			row, a1, at, b1, bt = row[4:], a1[4:n], at[4:n], b1[4:n], bt[4:n]
+		}
 		for c, v := range row {
 			b1[c] = a1[c] + v
 			bt[c] = at[c] + tt*v
 		}
 	}
-	// Gram matrices over t = k+2..T for k = 0..kk, by one backward sweep.
+	w.grams(kk)
+}
+
+// grams sets gram[k], the lower triangle of the cross-products of the base
+// columns over t = k+2..T, for k = 0..kk. Each entry is the sum of its
+// products in the order t = T, T-1, ..., k+2 (the order of a backward
+// sweep over the rows), so the entries are the same bit for bit whichever
+// loop computes them (TestGramsEqualSweep). The entries with the constant
+// and the trend are the suffix sums s1 and st at m = k+2, already summed
+// in that order (x·1 = x and τ·x = x·τ exactly). The others are products
+// of y_{t-1} and the differences Δy_{t-j}, j = 0..kk, which are shifts of
+// one vector: each entry is one dot product of two contiguous runs, summed
+// in a register, instead of a read-modify-write of every entry at every
+// row (several times dearer under WebAssembly than natively).
+func (w *Searcher) grams(kk int) {
+	T, np, ys := w.T, w.p+1, w.ys
 	if len(w.gram) < kk+1 {
 		w.gram = append(w.gram, make([][]float64, kk+1-len(w.gram))...)
 	}
 	w.gram = w.gram[:kk+1]
-	w.acc = searchGrow(w.acc, np*np)
-	acc := w.acc
-	for i := range acc {
-		acc[i] = 0
-	}
-	for t := T; t >= 2; t-- {
-		row := x[t*np : (t+1)*np]
-		for i, xi := range row {
-			ai := acc[i*np : i*np+i+1]
-			ri := row[:len(ai)] // one bounds check per row, none in the loop
-			for j, v := range ri {
-				ai[j] += xi * v
+	for k := range w.gram {
+		w.gram[k] = searchGrow(w.gram[k], np*np)
+		g, s1, st := w.gram[k], w.s1[(k+2)*np:(k+3)*np], w.st[(k+2)*np:(k+3)*np]
+		for i := 0; i < np; i++ {
+			g[i*np] = s1[i]
+			if i >= 1 {
+				g[i*np+1] = st[i]
 			}
 		}
-		if k := t - 2; k <= kk {
-			w.gram[k] = searchGrow(w.gram[k], np*np)
-			copy(w.gram[k], acc)
+	}
+	// Runs indexed by u = T - t (t = T..2, u = 0..T-2): ylag[u] = y_{t-1},
+	// dys[u+j] = Δy_{t-j} (0 where t-j < 2, as in the rows).
+	n := T - 1
+	w.acc = searchGrow(w.acc, n+n+kk)
+	ylag, dys := w.acc[:n], w.acc[n:n+n+kk]
+	for u := 0; u < n; u++ {
+		t := T - u
+		ylag[u] = ys[t-2]
+		dys[u] = ys[t-1] - ys[t-2]
+	}
+	for u := n; u < len(dys); u++ {
+		dys[u] = 0
+	}
+	// col returns the run of base column c (2: y_{t-1}, 2+j: Δy_{t-j},
+	// p: Δy_t).
+	col := func(c int) []float64 {
+		if c == 2 {
+			return ylag
+		}
+		j := 0
+		if c < w.p {
+			j = c - 2
+		}
+		return dys[j : j+n]
+	}
+	head := max(0, T-kk-2) // rows t = T..kk+3 come before the first order's sample ends
+	for i := 2; i < np; i++ {
+		a := col(i)
+		for j := 2; j <= i; j++ {
+			b := col(j)
+			s := searchDot(a[:head], b[:head])
+			for u := head; u < n; u++ {
+				s += a[u] * b[u]
+				if k := T - u - 2; k <= kk {
+					w.gram[k][i*np+j] = s
+				}
+			}
 		}
 	}
 }
@@ -404,38 +457,57 @@ func forwardScaled(l, linv, d, v, w []float64, K, n int) {
 
 // breakVectors computes, for tb, the raw cross-products of each break
 // column of spec with every base column (and Δy), and between break columns.
-// It returns the number of break columns.
+// It returns the number of break columns. The cross-products between break
+// columns over t > TB are
+//
+//	DU·DU = n,  DU·DT = Σ τ_t - τ_TB n,  DT·DT = Σ τ_t² - 2 τ_TB Σ τ_t + τ_TB² n,
+//	D·D = DU·D = 1,  DT·D = 1/T
+//
+// (n = T - TB; DT scaled by 1/T as τ).
 func (w *Searcher) breakVectors(spec *Spec, tb int) int {
 	T := w.T
 	m := tb + 1
 	tauTB := (float64(tb) - float64(T+1)/2) / float64(T)
-	nb := 0
 	np := w.p + 1
-	for _, on := range [3]struct {
-		ok   bool
-		code int
-	}{{spec.Terms.Level, codeDU}, {spec.Terms.Slope, codeDT}, {spec.Terms.Dummy, codeD}} {
-		if !on.ok {
-			continue
-		}
-		w.bcode[nb] = on.code
-		v := w.bv[nb*np : (nb+1)*np]
-		s1, st, x := w.s1[m*np:(m+1)*np], w.st[m*np:(m+1)*np], w.x[m*np:(m+1)*np]
-		switch on.code {
-		case codeDU:
-			copy(v, s1)
-		case codeDT:
-			for c := range v {
-				v[c] = st[c] - tauTB*s1[c]
-			}
-		default:
-			copy(v, x)
-		}
+	s1, st := w.s1[m*np:(m+1)*np], w.st[m*np:(m+1)*np]
+	st = st[:len(s1)]
+	n := s1[0]
+	// cr[a][b], a >= b, by term: 0 DU, 1 DT, 2 D.
+	var cr [3][3]float64
+	var term [3]int
+	nb := 0
+	if spec.Terms.Level {
+		w.bcode[nb], term[nb] = codeDU, 0
+		copy(w.bv[:np], s1)
+		cr[0][0] = n
 		nb++
 	}
-	for i := 0; i < nb; i++ {
-		for j := 0; j <= i; j++ {
-			w.bb[i*3+j] = w.breakCross(w.bcode[i], w.bcode[j], m, tauTB)
+	if spec.Terms.Slope {
+		w.bcode[nb], term[nb] = codeDT, 1
+		v := w.bv[nb*np : (nb+1)*np]
+		v = v[:len(s1)]
+		for c, a := range s1 {
+			v[c] = st[c] - tauTB*a
+		}
+		cr[1][1] = st[1] - 2*tauTB*st[0] + tauTB*tauTB*n
+		cr[1][0] = st[0] - tauTB*n
+		nb++
+	}
+	if spec.Terms.Dummy {
+		w.bcode[nb], term[nb] = codeD, 2
+		copy(w.bv[nb*np:(nb+1)*np], w.x[m*np:(m+1)*np])
+		cr[2][2], cr[2][0], cr[2][1] = 1, 1, 1/float64(T)
+		nb++
+	}
+	// The lower triangle of bb, written out (nb <= 3).
+	t0 := term[0]
+	w.bb[0] = cr[t0][t0]
+	if nb > 1 {
+		t1 := term[1]
+		w.bb[3], w.bb[4] = cr[t1][t0], cr[t1][t1]
+		if nb > 2 {
+			t2 := term[2]
+			w.bb[6], w.bb[7], w.bb[8] = cr[t2][t0], cr[t2][t1], cr[t2][t2]
 		}
 	}
 	return nb
@@ -459,29 +531,6 @@ func (w *Searcher) residualise(f *pfactor, nb, n int) {
 			dot := searchDot(row, out[:i])
 			out[i] = (v[c]*d[i] - dot) * linv[i]
 		}
-	}
-}
-
-// breakCross is the cross-product of two break columns over t > TB.
-func (w *Searcher) breakCross(a, b, m int, tauTB float64) float64 {
-	if a < b {
-		a, b = b, a
-	}
-	np := w.p + 1
-	n := w.s1[m*np]
-	switch {
-	case a == codeDU && b == codeDU:
-		return n
-	case a == codeDT && b == codeDT:
-		return w.st[m*np+1] - 2*tauTB*w.st[m*np] + tauTB*tauTB*n
-	case a == codeD && b == codeD:
-		return 1
-	case a == codeDU && b == codeDT:
-		return w.st[m*np] - tauTB*n
-	case a == codeDU && b == codeD:
-		return 1
-	default: // DT × D
-		return 1 / float64(w.T)
 	}
 }
 
@@ -932,9 +981,16 @@ func (w *Searcher) finalResid2(f *pfactor) {
 		row := f.l[i*K : i*K+i]
 		p0, p1 := o0[:len(row)], o1[:len(row)]
 		a0, a1 := 0.0, 0.0
-		for j, l := range row {
-			a0 += l * p0[j]
-			a1 += l * p1[j]
+		for len(row) >= 2 { // unrolled by two, the sums in the same order
+			a0 += row[0] * p0[0]
+			a1 += row[0] * p1[0]
+			a0 += row[1] * p0[1]
+			a1 += row[1] * p1[1]
+			row, p0, p1 = row[2:], p0[2:len(row)], p1[2:len(row)]
+		}
+		if len(row) == 1 {
+			a0 += row[0] * p0[0]
+			a1 += row[0] * p1[0]
 		}
 		di, li := d[i], linv[i]
 		r0 := (v0[c]*di - a0) * li
@@ -1129,9 +1185,20 @@ func cholPrefix(a, b []float64, K int, l, d, z []float64) int {
 	return K
 }
 
+// searchDot is Σ x_i y_i summed in order from i = 0. The loop is unrolled
+// by four with the one accumulator, so the sum is the same bit for bit:
+// under WebAssembly every taken branch of a Go function goes through the
+// function's block dispatcher, which costs more than the product itself.
 func searchDot(x, y []float64) float64 {
 	s := 0.0
 	y = y[:len(x)] // hoists the bounds check out of the loop
+	for len(x) >= 4 {
+		s += x[0] * y[0]
+		s += x[1] * y[1]
+		s += x[2] * y[2]
+		s += x[3] * y[3]
+		x, y = x[4:], y[4:len(x)]
+	}
 	for i, v := range x {
 		s += v * y[i]
 	}

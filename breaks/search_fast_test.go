@@ -94,3 +94,45 @@ func TestFinalFastEqualsGeneral(t *testing.T) {
 		t.Errorf("only %d candidates compared", checked)
 	}
 }
+
+// gramSweep is the twin of Searcher.grams: one backward sweep over the rows
+// of the base columns, accumulating every lower-triangle entry and copying
+// the accumulator when the sample of order k = t-2 is complete.
+func gramSweep(w *Searcher) [][]float64 {
+	T, np, kk := w.T, w.p+1, w.kk
+	acc := make([]float64, np*np)
+	out := make([][]float64, kk+1)
+	for t := T; t >= 2; t-- {
+		row := w.x[t*np : (t+1)*np]
+		for i, xi := range row {
+			for j := 0; j <= i; j++ {
+				acc[i*np+j] += xi * row[j]
+			}
+		}
+		if k := t - 2; k <= kk {
+			out[k] = append([]float64(nil), acc...)
+		}
+	}
+	return out
+}
+
+func TestGramsEqualSweep(t *testing.T) {
+	for _, c := range []struct{ T, kk int }{{20, 0}, {20, 3}, {60, 8}, {300, 4}, {1000, 8}} {
+		for seed := uint64(1); seed <= 3; seed++ {
+			y := ioSimSeries(c.T, 1, 2, c.T/2, float64(seed-1)*1e6, seed)
+			var w Searcher
+			w.prepare(y, c.kk)
+			want := gramSweep(&w)
+			np := w.p + 1
+			for k := 0; k <= c.kk; k++ {
+				for i := 0; i < np; i++ {
+					for j := 0; j <= i; j++ {
+						if g, s := w.gram[k][i*np+j], want[k][i*np+j]; !same(g, s) {
+							t.Fatalf("T=%d kk=%d seed %d: gram[%d][%d,%d] = %v, sweep %v", c.T, c.kk, seed, k, i, j, g, s)
+						}
+					}
+				}
+			}
+		}
+	}
+}
