@@ -275,6 +275,18 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		row := x[t*np : (t+1)*np]
 		row[0] = 1
 		row[1] = (float64(t) - float64(T+1)/2) / float64(T)
+		if t >= kk+2 && len(row) >= 3 {
+			// Every term exists: no zeros to write, no conditions.
+			row[2] = ys[t-2]
+			row[w.p] = ys[t-1] - ys[t-2]
+			lags := row[3 : 3+kk]   // Δy_{t-1}, ..., Δy_{t-kk}
+			win := ys[t-kk-2 : t-1] // y_{t-kk-2}, ..., y_{t-2} (0-based ys[t-kk-2..t-2])
+			for j := range lags {
+				// lag j+1: ys[t-j-2] - ys[t-j-3] = win[kk-j] - win[kk-j-1]
+				lags[j] = win[kk-j] - win[kk-j-1]
+			}
+			continue
+		}
 		for c := 2; c < np; c++ {
 			row[c] = 0
 		}
@@ -292,14 +304,15 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		a1, at := s1[(t+1)*np:(t+2)*np], st[(t+1)*np:(t+2)*np]
 		b1, bt := s1[t*np:(t+1)*np], st[t*np:(t+1)*np]
 		a1, at, b1, bt = a1[:len(row)], at[:len(row)], b1[:len(row)], bt[:len(row)]
-		for len(row) >= 4 { // unrolled by four (see searchDot)
-			b1[0], bt[0] = a1[0]+row[0], at[0]+tt*row[0]
-			b1[1], bt[1] = a1[1]+row[1], at[1]+tt*row[1]
-			b1[2], bt[2] = a1[2]+row[2], at[2]+tt*row[2]
-			b1[3], bt[3] = a1[3]+row[3], at[3]+tt*row[3]
-			n := len(row)
-			row, a1, at, b1, bt = row[4:], a1[4:n], at[4:n], b1[4:n], bt[4:n]
+		for len(row) >= 4 && len(a1) >= 4 && len(at) >= 4 && len(b1) >= 4 && len(bt) >= 4 { // unrolled by four (see searchDot)
+			r, p1, pt, q1, qt := (*[4]float64)(row), (*[4]float64)(a1), (*[4]float64)(at), (*[4]float64)(b1), (*[4]float64)(bt)
+			q1[0], qt[0] = p1[0]+r[0], pt[0]+tt*r[0]
+			q1[1], qt[1] = p1[1]+r[1], pt[1]+tt*r[1]
+			q1[2], qt[2] = p1[2]+r[2], pt[2]+tt*r[2]
+			q1[3], qt[3] = p1[3]+r[3], pt[3]+tt*r[3]
+			row, a1, at, b1, bt = row[4:], a1[4:], at[4:], b1[4:], bt[4:]
 		}
+		a1, at, b1, bt = a1[:len(row)], at[:len(row)], b1[:len(row)], bt[:len(row)]
 		for c, v := range row {
 			b1[c] = a1[c] + v
 			bt[c] = at[c] + tt*v
@@ -649,7 +662,11 @@ func (w *Searcher) at(spec *Spec, tb int) (Candidate, fitStatus) {
 	k := spec.Lags
 	if spec.LagRule != core.LagFixed {
 		var st fitStatus
-		k, st = w.selectLag(spec, nb)
+		if nb == 1 {
+			k, st = w.selectLag1(spec)
+		} else {
+			k, st = w.selectLag(spec, nb)
+		}
 		if st != fitOK {
 			return Candidate{}, st
 		}
@@ -860,6 +877,82 @@ func (w *Searcher) selectLag(spec *Spec, nb int) (int, fitStatus) {
 	return best, fitOK
 }
 
+// selectLag1 is selectLag for one break column written out with scalars
+// (tLast's one-column case and the cumulative updates inline, no closure):
+// the same operations in the same order, so the same order is chosen
+// (TestSelectLag1EqualsGeneral).
+func (w *Searcher) selectLag1(spec *Spec) (int, fitStatus) {
+	f := &w.sel
+	kk := w.kk
+	nd := len(f.codes) - 1 - kk
+	i0 := nd + 1
+	if f.rank < i0 {
+		return 0, fitSkip
+	}
+	kTop := min(f.rank-i0, kk)
+	w.residualise(f, 1, i0+kTop)
+	n := w.T - kk - 1
+	K := len(f.codes)
+	wb, ry := w.wb[:i0+kTop], f.ry[:i0+kTop]
+	bb0 := w.bb[0]
+	s00, sy, yy := bb0, w.bv[w.p], f.yy
+	for r := 0; r < i0-1; r++ {
+		wi := wb[r]
+		s00 -= wi * wi
+		sy -= wi * ry[r]
+		yy -= ry[r] * ry[r]
+	}
+	ic := spec.LagRule == core.LagAIC || spec.LagRule == core.LagBIC
+	pen := 2.0
+	if spec.LagRule == core.LagBIC {
+		pen = math.Log(float64(n))
+	}
+	best, bestIC := 0, math.Inf(1)
+	for k := 0; k <= kTop; k++ {
+		r := i0 - 1 + k
+		lrr := f.l[r*K+r]
+		a, b := wb[r]*lrr, sy
+		xx, xy := lrr*lrr, ry[r]*lrr
+		// tLast with one break column.
+		df := n - (r + 2)
+		ok := df > 0 && s00 > 1e-10*bb0 && s00 > 1e-12*s00
+		var ssr, t2 float64
+		if ok {
+			qxx, qxy, qyy := a*a/s00, a*b/s00, b*b/s00
+			px := xx - qxx
+			ok = px > 1e-12*xx
+			if ok {
+				zx := xy - qxy
+				ssr = yy - qyy - zx*zx/px
+				if ssr <= ExactFitTol*f.yy {
+					// Every larger order fits exactly too (nested, same sample).
+					return k, fitExact
+				}
+				ok = !math.IsNaN(ssr)
+				t2 = zx * zx / px / (ssr / float64(df))
+			}
+		}
+		if !ok {
+			if k == 0 {
+				return 0, fitSkip
+			}
+			break
+		}
+		if ic {
+			if v := math.Log(ssr/float64(n)) + pen*float64(r+2)/float64(n); v < bestIC {
+				best, bestIC = k, v
+			}
+		} else if k > 0 && t2 > TSigCritical*TSigCritical {
+			best = k // the largest significant order wins
+		}
+		wi := wb[r]
+		s00 -= wi * wi
+		sy -= wi * ry[r]
+		yy -= ry[r] * ry[r]
+	}
+	return best, fitOK
+}
+
 // final estimates the k-lag regression at tb on t = k+2..T: P = [const,
 // trend, lags 1..k] is factored once per series, y_{t-1} is the target
 // column, and the breaks are residualised on P.
@@ -981,12 +1074,13 @@ func (w *Searcher) finalResid2(f *pfactor) {
 		row := f.l[i*K : i*K+i]
 		p0, p1 := o0[:len(row)], o1[:len(row)]
 		a0, a1 := 0.0, 0.0
-		for len(row) >= 2 { // unrolled by two, the sums in the same order
-			a0 += row[0] * p0[0]
-			a1 += row[0] * p1[0]
-			a0 += row[1] * p0[1]
-			a1 += row[1] * p1[1]
-			row, p0, p1 = row[2:], p0[2:len(row)], p1[2:len(row)]
+		for len(row) >= 2 && len(p0) >= 2 && len(p1) >= 2 { // unrolled by two, the sums in the same order
+			l, q0, q1 := (*[2]float64)(row), (*[2]float64)(p0), (*[2]float64)(p1)
+			a0 += l[0] * q0[0]
+			a1 += l[0] * q1[0]
+			a0 += l[1] * q0[1]
+			a1 += l[1] * q1[1]
+			row, p0, p1 = row[2:], p0[2:], p1[2:]
 		}
 		if len(row) == 1 {
 			a0 += row[0] * p0[0]
@@ -1192,13 +1286,15 @@ func cholPrefix(a, b []float64, K int, l, d, z []float64) int {
 func searchDot(x, y []float64) float64 {
 	s := 0.0
 	y = y[:len(x)] // hoists the bounds check out of the loop
-	for len(x) >= 4 {
-		s += x[0] * y[0]
-		s += x[1] * y[1]
-		s += x[2] * y[2]
-		s += x[3] * y[3]
-		x, y = x[4:], y[4:len(x)]
+	for len(x) >= 4 && len(y) >= 4 {
+		a, b := (*[4]float64)(x), (*[4]float64)(y) // no bounds checks below
+		s += a[0] * b[0]
+		s += a[1] * b[1]
+		s += a[2] * b[2]
+		s += a[3] * b[3]
+		x, y = x[4:], y[4:]
 	}
+	y = y[:len(x)]
 	for i, v := range x {
 		s += v * y[i]
 	}
@@ -1212,7 +1308,9 @@ func standardize(dst, y []float64) []float64 {
 	dst = searchGrow(dst, len(y))
 	s := 0.0
 	for _, v := range y {
-		s = max(s, math.Abs(v))
+		if a := math.Abs(v); !(a <= s) && s == s { // max(s, |v|) without the call; NaN wins, as in max
+			s = a
+		}
 	}
 	if s > 0 && !math.IsInf(s, 0) {
 		for i, v := range y {

@@ -136,3 +136,38 @@ func TestGramsEqualSweep(t *testing.T) {
 		}
 	}
 }
+
+func TestSelectLag1EqualsGeneral(t *testing.T) {
+	checked := 0
+	for si, rule := range []core.LagRule{core.LagTSig, core.LagAIC, core.LagBIC} {
+		for _, terms := range []Terms{{Level: true}, {Slope: true}} {
+			for _, c := range []struct {
+				T      int
+				phi    float64
+				shift  float64
+				level  float64
+				maxLag int
+			}{{60, 1, 0, 0, 8}, {250, 0.6, 4, 1e6, 8}, {1000, 1, 0, 0, 12}} {
+				y := ioSimSeries(c.T, c.phi, c.shift, c.T/2, c.level, uint64(900+si))
+				lo, hi, _ := Candidates(c.T, 0.15)
+				spec := Spec{Trend: core.TrendLinear, Terms: terms, LagRule: rule, MaxLags: c.maxLag, Lo: lo, Hi: hi}
+				var w Searcher
+				if _, _, err := w.Search(y, &spec, false); err != nil {
+					t.Fatal(err)
+				}
+				for tb := max(lo, spec.kmax()+2); tb <= hi; tb++ {
+					w.breakVectors(&spec, tb)
+					k1, st1 := w.selectLag1(&spec)
+					k2, st2 := w.selectLag(&spec, 1)
+					if k1 != k2 || st1 != st2 {
+						t.Fatalf("%s %+v T=%d TB=%d: written-out k=%d (%d), general k=%d (%d)", rule, terms, c.T, tb, k1, st1, k2, st2)
+					}
+					checked++
+				}
+			}
+		}
+	}
+	if checked < 3000 {
+		t.Errorf("only %d candidates compared", checked)
+	}
+}
