@@ -378,7 +378,7 @@ func (w *Searcher) grams(kk int) {
 		a := col(i)
 		for j := 2; j <= i; j++ {
 			b := col(j)
-			s := searchDot(a[:head], b[:head])
+			s := longDot(a[:head], b[:head])
 			for u := head; u < n; u++ {
 				s += a[u] * b[u]
 				if k := T - u - 2; k <= kk {
@@ -1074,17 +1074,9 @@ func (w *Searcher) finalResid2(f *pfactor) {
 		row := f.l[i*K : i*K+i]
 		p0, p1 := o0[:len(row)], o1[:len(row)]
 		a0, a1 := 0.0, 0.0
-		for len(row) >= 2 && len(p0) >= 2 && len(p1) >= 2 { // unrolled by two, the sums in the same order
-			l, q0, q1 := (*[2]float64)(row), (*[2]float64)(p0), (*[2]float64)(p1)
-			a0 += l[0] * q0[0]
-			a1 += l[0] * q1[0]
-			a0 += l[1] * q0[1]
-			a1 += l[1] * q1[1]
-			row, p0, p1 = row[2:], p0[2:], p1[2:]
-		}
-		if len(row) == 1 {
-			a0 += row[0] * p0[0]
-			a1 += row[0] * p1[0]
+		for j, l := range row {
+			a0 += l * p0[j]
+			a1 += l * p1[j]
 		}
 		di, li := d[i], linv[i]
 		r0 := (v0[c]*di - a0) * li
@@ -1279,13 +1271,24 @@ func cholPrefix(a, b []float64, K int, l, d, z []float64) int {
 	return K
 }
 
-// searchDot is Σ x_i y_i summed in order from i = 0. The loop is unrolled
-// by four with the one accumulator, so the sum is the same bit for bit:
-// under WebAssembly every taken branch of a Go function goes through the
-// function's block dispatcher, which costs more than the product itself.
+// searchDot is Σ x_i y_i summed in order from i = 0 (short vectors: it is
+// inlined).
 func searchDot(x, y []float64) float64 {
 	s := 0.0
 	y = y[:len(x)] // hoists the bounds check out of the loop
+	for i, v := range x {
+		s += v * y[i]
+	}
+	return s
+}
+
+// longDot is searchDot for long vectors: the loop is unrolled by four with
+// the one accumulator, so the sum is the same bit for bit. Under
+// WebAssembly every taken branch of a Go function goes through the
+// function's block dispatcher, which costs more than the product itself.
+func longDot(x, y []float64) float64 {
+	s := 0.0
+	y = y[:len(x)]
 	for len(x) >= 4 && len(y) >= 4 {
 		a, b := (*[4]float64)(x), (*[4]float64)(y) // no bounds checks below
 		s += a[0] * b[0]
