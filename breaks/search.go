@@ -619,8 +619,9 @@ func (w *Searcher) search(spec *Spec, path bool) (Candidate, []Candidate, error)
 	w.factors(spec)
 	bestScore := math.Inf(1)
 	var exact exactSet
+	var c Candidate
 	for tb := lo; tb <= hi; tb++ {
-		c, st := w.at(spec, tb)
+		st := w.at(spec, tb, &c)
 		if st == fitExact {
 			exact.add([]int{tb})
 			continue
@@ -656,8 +657,9 @@ func (w *Searcher) search(spec *Spec, path bool) (Candidate, []Candidate, error)
 	return best, nil, nil
 }
 
-// at estimates the regression at tb with the spec's lag rule.
-func (w *Searcher) at(spec *Spec, tb int) (Candidate, fitStatus) {
+// at estimates the regression at tb with the spec's lag rule into c (set
+// when the status is fitOK).
+func (w *Searcher) at(spec *Spec, tb int, c *Candidate) fitStatus {
 	nb := w.breakVectors(spec, tb)
 	k := spec.Lags
 	if spec.LagRule != core.LagFixed {
@@ -668,10 +670,10 @@ func (w *Searcher) at(spec *Spec, tb int) (Candidate, fitStatus) {
 			k, st = w.selectLag(spec, nb)
 		}
 		if st != fitOK {
-			return Candidate{}, st
+			return st
 		}
 	}
-	return w.final(spec, tb, k, nb)
+	return w.final(spec, tb, k, nb, c)
 }
 
 // smallSystem solves, with core.Normal, the regression of the residualised
@@ -956,11 +958,11 @@ func (w *Searcher) selectLag1(spec *Spec) (int, fitStatus) {
 // final estimates the k-lag regression at tb on t = k+2..T: P = [const,
 // trend, lags 1..k] is factored once per series, y_{t-1} is the target
 // column, and the breaks are residualised on P.
-func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
+func (w *Searcher) final(spec *Spec, tb, k, nb int, c *Candidate) fitStatus {
 	f := &w.fin[k]
 	K := len(f.codes)
 	if f.rank < K {
-		return Candidate{}, fitSkip
+		return fitSkip
 	}
 	switch nb {
 	case 1:
@@ -975,35 +977,28 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
 	if spec.OnlyTAlpha && spec.Rule == MinTAlpha {
 		// Statistic only: t_α from the written-out factorisation.
 		t2, sign, _, st := w.tLast(nb, f.xxRes, f.xyRes, f.yyRes, f.yy, n-Ktot)
-		return Candidate{TB: tb, Lags: k, NObs: n, Alpha: math.NaN(), TAlpha: sign * math.Sqrt(t2),
-			TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}, st
+		*c = Candidate{TB: tb, Lags: k, NObs: n, Alpha: math.NaN(), TAlpha: sign * math.Sqrt(t2),
+			TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
+		return st
 	}
 	switch nb {
 	case 1:
-		return w.final1(tb, k, n, Ktot, f)
+		return w.final1(tb, k, n, Ktot, f, c)
 	case 2:
-		return w.final2(tb, k, n, Ktot, f)
+		return w.final2(tb, k, n, Ktot, f, c)
 	}
 	tA, ssr, st := w.smallSystem(nb, w.xb[:nb], f.xxRes, f.xyRes, f.yyRes, f.yy, n, Ktot)
 	if st != fitOK {
-		return Candidate{}, st
+		return st
 	}
 	m := &w.nrm
-	c := Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + m.Coef[nb], TAlpha: tA,
+	*c = Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + m.Coef[nb], TAlpha: tA,
 		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
 	s2 := ssr / float64(n-Ktot)
 	for i := 0; i < nb; i++ {
-		t := m.Coef[i] / math.Sqrt(s2*m.InvDiag(i))
-		switch w.bcode[i] {
-		case codeDU:
-			c.TLevel = t
-		case codeDT:
-			c.TSlope = t
-		default:
-			c.TDummy = t
-		}
+		w.setBreakT(c, i, m.Coef[i]/math.Sqrt(s2*m.InvDiag(i)))
 	}
-	return c, fitOK
+	return fitOK
 }
 
 // finalResid residualises the nb break columns on the final factor f and
@@ -1098,28 +1093,22 @@ func (w *Searcher) finalResid2(f *pfactor) {
 // with core.Normal's Jacobi-scaled Cholesky solve and InvDiag written out
 // for the 2×2 system [break, y_{t-1}]: the same operations in the same
 // order, so the candidate is equal bit for bit to the general path's
-// (TestFinalFastEqualsGeneral).
-func (w *Searcher) final1(tb, k, n, Ktot int, f *pfactor) (Candidate, fitStatus) {
+// (TestFinalFastEqualsGeneral). Everything is computed first and the
+// conditions of smallSystem and core.Normal (a break column in the span of
+// P, a non-positive diagonal or pivot, no degrees of freedom: fitSkip; an
+// exact fit: fitExact; a non-finite t-ratio: fitSkip) are tested together
+// at the end: the values of a valid candidate do not depend on it, and
+// straight-line code avoids the block dispatch of every branch under
+// WebAssembly. It writes the candidate into c when the status is fitOK.
+func (w *Searcher) final1(tb, k, n, Ktot int, f *pfactor, c *Candidate) fitStatus {
 	a00, b0 := w.sbb[0], w.sby[0]
-	if !(a00 > 1e-10*w.bb[0]) {
-		return Candidate{}, fitSkip
-	}
 	a10, a11, b1, yy := w.xb[0], f.xxRes, f.xyRes, f.yyRes
-	if !(a00 > 0) || !(a11 > 0) {
-		return Candidate{}, fitSkip
-	}
 	d0, d1 := 1/math.Sqrt(a00), 1/math.Sqrt(a11)
-	s := a00*d0*d0 - 0.0
-	if s <= 1e-12 {
-		return Candidate{}, fitSkip
-	}
-	l00 := math.Sqrt(s)
+	p0 := a00*d0*d0 - 0.0
+	l00 := math.Sqrt(p0)
 	l10 := (a10*d1*d0 - 0.0) / l00
-	s = a11*d1*d1 - l10*l10
-	if s <= 1e-12 {
-		return Candidate{}, fitSkip
-	}
-	l11 := math.Sqrt(s)
+	p1 := a11*d1*d1 - l10*l10
+	l11 := math.Sqrt(p1)
 	z0 := b0 * d0 / l00
 	z1 := (b1*d1 - l10*z0) / l11
 	c1 := z1 / l11
@@ -1127,16 +1116,10 @@ func (w *Searcher) final1(tb, k, n, Ktot int, f *pfactor) (Candidate, fitStatus)
 	ssr := yy - z0*z0 - z1*z1
 	c0 *= d0
 	c1 *= d1
-	if ssr < 0 {
+	if ssr < 0 { // clamped at 0, as in core.Normal
 		ssr = 0
 	}
 	df := float64(n - Ktot)
-	if n-Ktot <= 0 {
-		return Candidate{}, fitSkip
-	}
-	if ssr <= ExactFitTol*f.yy {
-		return Candidate{}, fitExact
-	}
 	// InvDiag(1) and InvDiag(0).
 	w1 := 1 / l11
 	inv1 := w1 * w1 * d1 * d1
@@ -1144,46 +1127,37 @@ func (w *Searcher) final1(tb, k, n, Ktot int, f *pfactor) (Candidate, fitStatus)
 	u1 := (0 - l10*u0) / l11
 	inv0 := (u0*u0 + u1*u1) * d0 * d0
 	tA := c1 / math.Sqrt(ssr/df*inv1)
-	if math.IsNaN(tA) || math.IsInf(tA, 0) {
-		return Candidate{}, fitSkip
+	if !(a00 > 1e-10*w.bb[0] && a00 > 0 && a11 > 0 && !(p0 <= 1e-12) && !(p1 <= 1e-12) && n-Ktot > 0) {
+		return fitSkip
 	}
-	c := Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + c1, TAlpha: tA,
+	if ssr <= ExactFitTol*f.yy {
+		return fitExact
+	}
+	if math.IsNaN(tA) || math.IsInf(tA, 0) {
+		return fitSkip
+	}
+	*c = Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + c1, TAlpha: tA,
 		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
-	w.setBreakT(&c, 0, c0/math.Sqrt(ssr/df*inv0))
-	return c, fitOK
+	w.setBreakT(c, 0, c0/math.Sqrt(ssr/df*inv0))
+	return fitOK
 }
 
 // final2 is final1 for two break columns: the 3×3 system [break 1,
 // break 2, y_{t-1}] written out.
-func (w *Searcher) final2(tb, k, n, Ktot int, f *pfactor) (Candidate, fitStatus) {
+func (w *Searcher) final2(tb, k, n, Ktot int, f *pfactor, c *Candidate) fitStatus {
 	a00, a10, a11 := w.sbb[0], w.sbb[3], w.sbb[4]
-	if !(a00 > 1e-10*w.bb[0]) || !(a11 > 1e-10*w.bb[4]) {
-		return Candidate{}, fitSkip
-	}
 	a20, a21, a22 := w.xb[0], w.xb[1], f.xxRes
 	b0, b1, b2, yy := w.sby[0], w.sby[1], f.xyRes, f.yyRes
-	if !(a00 > 0) || !(a11 > 0) || !(a22 > 0) {
-		return Candidate{}, fitSkip
-	}
 	d0, d1, d2 := 1/math.Sqrt(a00), 1/math.Sqrt(a11), 1/math.Sqrt(a22)
-	s := a00*d0*d0 - 0.0
-	if s <= 1e-12 {
-		return Candidate{}, fitSkip
-	}
-	l00 := math.Sqrt(s)
+	p0 := a00*d0*d0 - 0.0
+	l00 := math.Sqrt(p0)
 	l10 := (a10*d1*d0 - 0.0) / l00
 	l20 := (a20*d2*d0 - 0.0) / l00
-	s = a11*d1*d1 - l10*l10
-	if s <= 1e-12 {
-		return Candidate{}, fitSkip
-	}
-	l11 := math.Sqrt(s)
+	p1 := a11*d1*d1 - l10*l10
+	l11 := math.Sqrt(p1)
 	l21 := (a21*d2*d1 - (0 + l20*l10)) / l11 // "0 +": the sum of core.Normal, signed zeros included
-	s = a22*d2*d2 - (l20*l20 + l21*l21)
-	if s <= 1e-12 {
-		return Candidate{}, fitSkip
-	}
-	l22 := math.Sqrt(s)
+	p2 := a22*d2*d2 - (l20*l20 + l21*l21)
+	l22 := math.Sqrt(p2)
 	z0 := b0 * d0 / l00
 	z1 := (b1*d1 - l10*z0) / l11
 	z2 := (b2*d2 - l20*z0 - l21*z1) / l22
@@ -1198,12 +1172,6 @@ func (w *Searcher) final2(tb, k, n, Ktot int, f *pfactor) (Candidate, fitStatus)
 		ssr = 0
 	}
 	df := float64(n - Ktot)
-	if n-Ktot <= 0 {
-		return Candidate{}, fitSkip
-	}
-	if ssr <= ExactFitTol*f.yy {
-		return Candidate{}, fitExact
-	}
 	// InvDiag(2), InvDiag(0) and InvDiag(1).
 	w2 := 1 / l22
 	inv2 := w2 * w2 * d2 * d2
@@ -1215,15 +1183,22 @@ func (w *Searcher) final2(tb, k, n, Ktot int, f *pfactor) (Candidate, fitStatus)
 	v2 := (0 - l21*v1) / l22
 	inv1 := (v1*v1 + v2*v2) * d1 * d1
 	tA := c2 / math.Sqrt(ssr/df*inv2)
-	if math.IsNaN(tA) || math.IsInf(tA, 0) {
-		return Candidate{}, fitSkip
+	if !(a00 > 1e-10*w.bb[0] && a11 > 1e-10*w.bb[4] && a00 > 0 && a11 > 0 && a22 > 0 &&
+		!(p0 <= 1e-12) && !(p1 <= 1e-12) && !(p2 <= 1e-12) && n-Ktot > 0) {
+		return fitSkip
 	}
-	c := Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + c2, TAlpha: tA,
+	if ssr <= ExactFitTol*f.yy {
+		return fitExact
+	}
+	if math.IsNaN(tA) || math.IsInf(tA, 0) {
+		return fitSkip
+	}
+	*c = Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + c2, TAlpha: tA,
 		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
 	s2 := ssr / df
-	w.setBreakT(&c, 0, c0/math.Sqrt(s2*inv0))
-	w.setBreakT(&c, 1, c1/math.Sqrt(s2*inv1))
-	return c, fitOK
+	w.setBreakT(c, 0, c0/math.Sqrt(s2*inv0))
+	w.setBreakT(c, 1, c1/math.Sqrt(s2*inv1))
+	return fitOK
 }
 
 // setBreakT stores the t-ratio t of break column i in c.

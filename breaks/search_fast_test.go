@@ -79,7 +79,8 @@ func TestFinalFastEqualsGeneral(t *testing.T) {
 						continue
 					}
 				}
-				fast, st1 := w.final(&spec, tb, k, nb)
+				var fast Candidate
+				st1 := w.final(&spec, tb, k, nb, &fast)
 				gen, st2 := finalGeneral(&w, tb, k, nb)
 				if st1 != st2 || fast.TB != gen.TB || fast.Lags != gen.Lags || fast.NObs != gen.NObs ||
 					!same(fast.TAlpha, gen.TAlpha) || !same(fast.Alpha, gen.Alpha) || !same(fast.TLevel, gen.TLevel) ||
