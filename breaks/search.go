@@ -32,9 +32,11 @@ import (
 // The TB-independent columns are factored once per series (Jacobi-scaled
 // Cholesky, see pfactor); per candidate only the one to three break columns
 // are residualised on them (Frisch-Waugh-Lovell) by one triangular solve,
-// and the remaining (nb+1)-square system is solved by core.Normal. Lag
-// selection reads every order from one factorisation, the orders being
-// leading blocks. Nothing is allocated in the candidate loop.
+// and the remaining (nb+1)-square system is solved by core.Normal (written
+// out, with the same operations in the same order, for one and two break
+// columns: final1, final2). Lag selection reads every order from one
+// factorisation, the orders being leading blocks. Nothing is allocated in
+// the candidate loop.
 
 // ExactFitTol is the exact-fit rule shared by every break search of this
 // package (common practice, no source): a regression whose sum of squared
