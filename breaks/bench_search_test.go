@@ -133,7 +133,7 @@ func BenchmarkPAO(b *testing.B) {
 // candidate loop included).
 func TestSearchNoAlloc(t *testing.T) {
 	y := benchRW(300)
-	for _, spec := range []Spec{zaBenchSpec(300), {Trend: core.TrendLinear, Terms: Terms{Level: true, Slope: true, Dummy: true},
+	for _, spec := range []Spec{zaBenchSpec(300), zaIssueSpec(300), {Trend: core.TrendLinear, Terms: Terms{Level: true, Slope: true, Dummy: true},
 		LagRule: core.LagFixed, Lags: 2, Lo: 45, Hi: 255, Rule: MaxAbsTSlope}} {
 		var w Searcher
 		allocs := testing.AllocsPerRun(20, func() {
