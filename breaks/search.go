@@ -217,8 +217,8 @@ type Searcher struct {
 	ys       []float64
 	x        []float64   // base columns, row-major by 1-based t (see prepare)
 	s1, st   []float64   // suffix sums Σ_{u>=m} x_u and Σ_{u>=m} τ_u x_u, row-major by m = 1..T+1
-	gram     [][]float64 // gram[k]: cross-products of the base columns over t = k+2..T, (p+1)^2
-	acc      []float64
+	gram     [][]float64 // gram[k]: cross-products of the base columns over t = k+2..T, (p+1)^2, lower triangle only (see grams)
+	acc      []float64   // the runs of grams
 	sel      pfactor
 	fin      []pfactor
 	codesBuf []int
