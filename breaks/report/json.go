@@ -6,6 +6,7 @@ import (
 	"io"
 	"math"
 	"strconv"
+	"sync"
 
 	"github.com/rootshift/rootshift/core/schema"
 )
@@ -123,8 +124,10 @@ func (s *JSONStream) Encode(sr *schema.Series) ([]byte, error) {
 }
 
 // SeriesEncoded writes one element of the series array from the bytes of
-// Encode.
+// Encode. It takes b over: b must not be used afterwards (its storage may
+// serve the next Encode).
 func (s *JSONStream) SeriesEncoded(b []byte) error {
+	defer putEncoded(b)
 	if s.err != nil {
 		return s.err
 	}
@@ -192,7 +195,7 @@ func marshalSeries(sr *schema.Series) ([]byte, error) {
 		return nil, err
 	}
 	b = JSONHidden(b)
-	out := make([]byte, 0, len(b)+size)
+	out := getEncoded(len(b) + size)
 	var mark []byte
 	for i := range cp.Results {
 		if !replaced[i] {
@@ -208,6 +211,28 @@ func marshalSeries(sr *schema.Series) ([]byte, error) {
 		b = b[j+len(mark):]
 	}
 	return append(out, b...), nil
+}
+
+// encodedPool keeps the buffers of marshalSeries that SeriesEncoded has
+// written: a series with a long path is tens of kilobytes, and fresh
+// buffers for every series cost page faults and collections.
+var encodedPool sync.Pool
+
+func getEncoded(n int) []byte {
+	if p, ok := encodedPool.Get().(*[]byte); ok && cap(*p) >= n {
+		return (*p)[:0]
+	}
+	return make([]byte, 0, n)
+}
+
+// putEncoded returns b to the pool when it is large enough to be worth
+// keeping (small encodings come from encoding/json and are left to the
+// collector).
+func putEncoded(b []byte) {
+	if cap(b) >= 1<<14 {
+		b = b[:0]
+		encodedPool.Put(&b)
+	}
 }
 
 func finitePath(p []schema.PathPoint) bool {
