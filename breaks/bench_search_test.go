@@ -56,6 +56,47 @@ func BenchmarkZABrute(b *testing.B) {
 	}
 }
 
+// zaIssueSpec is the search of the CLI measurement `test --tests za --shift
+// level+slope --lags 4`: model C (level and slope shift), four fixed lags,
+// 15% trimming.
+func zaIssueSpec(T int) Spec {
+	lo, hi, _ := Candidates(T, 0.15)
+	return Spec{Trend: core.TrendLinear, Terms: Terms{Level: true, Slope: true}, LagRule: core.LagFixed, Lags: 4, Lo: lo, Hi: hi}
+}
+
+// BenchmarkZAModelC is the fast search of model C with four fixed lags and
+// its candidate path, as the CLI runs it; BenchmarkZAModelCBrute is its
+// brute-force twin (a full core.LS refit at every candidate).
+func BenchmarkZAModelC(b *testing.B) {
+	for _, T := range []int{100, 1000} {
+		b.Run(fmt.Sprintf("T=%d", T), func(b *testing.B) {
+			y := benchRW(T)
+			spec := zaIssueSpec(T)
+			var w Searcher
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, _, err := w.Search(y, &spec, true); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+func BenchmarkZAModelCBrute(b *testing.B) {
+	for _, T := range []int{100, 1000} {
+		b.Run(fmt.Sprintf("T=%d", T), func(b *testing.B) {
+			y := benchRW(T)
+			spec := zaIssueSpec(T)
+			for b.Loop() {
+				if _, _, err := ioBruteSearch(y, &spec); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
 // BenchmarkZASim is 10,000 replications of the za statistic (model A, lag
 // 0) at T=250 through the simulation engine.
 func BenchmarkZASim(b *testing.B) {
@@ -92,7 +133,7 @@ func BenchmarkPAO(b *testing.B) {
 // candidate loop included).
 func TestSearchNoAlloc(t *testing.T) {
 	y := benchRW(300)
-	for _, spec := range []Spec{zaBenchSpec(300), {Trend: core.TrendLinear, Terms: Terms{Level: true, Slope: true, Dummy: true},
+	for _, spec := range []Spec{zaBenchSpec(300), zaIssueSpec(300), {Trend: core.TrendLinear, Terms: Terms{Level: true, Slope: true, Dummy: true},
 		LagRule: core.LagFixed, Lags: 2, Lo: 45, Hi: 255, Rule: MaxAbsTSlope}} {
 		var w Searcher
 		allocs := testing.AllocsPerRun(20, func() {

@@ -90,8 +90,9 @@ func runP89(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result,
 	if err != nil {
 		return nil, err
 	}
-	var w Searcher
+	w := getSearcher()
 	best, _, err := w.Search(y, &spec, false)
+	putSearcher(w)
 	if err != nil {
 		return nil, WrapError(id, err)
 	}

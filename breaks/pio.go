@@ -84,12 +84,14 @@ func runPIO(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result,
 	if err != nil {
 		return nil, err
 	}
-	var w Searcher
+	w := getSearcher()
 	best, path, err := w.Search(y, &spec, !cfg.NoPath)
 	if err != nil {
+		putSearcher(w)
 		return nil, WrapError(id, err)
 	}
-	res := ioResult(id, y, cfg, &spec, best, path)
+	res := ioResult(id, y, cfg, &spec, best, path) // copies the path
+	putSearcher(w)
 	res.Null = pioNull
 	res.Variant = map[core.Shift]string{core.ShiftLevel: "IO1", core.ShiftBoth: "IO2"}[cfg.Shift] + ", break by " + spec.Rule.String()
 	finishSimulated(res, id, cfg, spec.Rule)

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"strings"
+	"sync"
 
 	"github.com/rootshift/rootshift/core"
 )
@@ -31,9 +32,11 @@ import (
 // The TB-independent columns are factored once per series (Jacobi-scaled
 // Cholesky, see pfactor); per candidate only the one to three break columns
 // are residualised on them (Frisch-Waugh-Lovell) by one triangular solve,
-// and the remaining (nb+1)-square system is solved by core.Normal. Lag
-// selection reads every order from one factorisation, the orders being
-// leading blocks. Nothing is allocated in the candidate loop.
+// and the remaining (nb+1)-square system is solved by core.Normal (written
+// out, with the same operations in the same order, for one and two break
+// columns: final1, final2). Lag selection reads every order from one
+// factorisation, the orders being leading blocks. Nothing is allocated in
+// the candidate loop.
 
 // ExactFitTol is the exact-fit rule shared by every break search of this
 // package (common practice, no source): a regression whose sum of squared
@@ -214,8 +217,8 @@ type Searcher struct {
 	ys       []float64
 	x        []float64   // base columns, row-major by 1-based t (see prepare)
 	s1, st   []float64   // suffix sums Σ_{u>=m} x_u and Σ_{u>=m} τ_u x_u, row-major by m = 1..T+1
-	gram     [][]float64 // gram[k]: cross-products of the base columns over t = k+2..T, (p+1)^2
-	acc      []float64
+	gram     [][]float64 // gram[k]: cross-products of the base columns over t = k+2..T, (p+1)^2, lower triangle only (see grams)
+	acc      []float64   // the runs of grams
 	sel      pfactor
 	fin      []pfactor
 	codesBuf []int
@@ -229,6 +232,20 @@ type Searcher struct {
 	a, b, z  []float64 // scratch of pfactor.build
 	nrm      core.Normal
 	path     []Candidate
+}
+
+// searcherPool keeps the scratch of finished searches for the next series:
+// a fresh Searcher allocates and clears about (T+2)·(k+4)·24 bytes, which in
+// a run over many series costs as much as the candidate loop itself.
+var searcherPool = sync.Pool{New: func() any { return new(Searcher) }}
+
+// getSearcher returns a Searcher from the pool; putSearcher returns it once
+// its path is no longer read.
+func getSearcher() *Searcher { return searcherPool.Get().(*Searcher) }
+
+func putSearcher(w *Searcher) {
+	w.path = w.path[:0]
+	searcherPool.Put(w)
 }
 
 // Column codes of a system: base columns are >= 0, break columns negative.
@@ -260,6 +277,18 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		row := x[t*np : (t+1)*np]
 		row[0] = 1
 		row[1] = (float64(t) - float64(T+1)/2) / float64(T)
+		if t >= kk+2 && len(row) >= 3 {
+			// Every term exists: no zeros to write, no conditions.
+			row[2] = ys[t-2]
+			row[w.p] = ys[t-1] - ys[t-2]
+			lags := row[3 : 3+kk]   // Δy_{t-1}, ..., Δy_{t-kk}
+			win := ys[t-kk-2 : t-1] // y_{t-kk-2}, ..., y_{t-2} (0-based ys[t-kk-2..t-2])
+			for j := range lags {
+				// lag j+1: ys[t-j-2] - ys[t-j-3] = win[kk-j] - win[kk-j-1]
+				lags[j] = win[kk-j] - win[kk-j-1]
+			}
+			continue
+		}
 		for c := 2; c < np; c++ {
 			row[c] = 0
 		}
@@ -277,33 +306,87 @@ func (w *Searcher) prepare(y []float64, kk int) {
 		a1, at := s1[(t+1)*np:(t+2)*np], st[(t+1)*np:(t+2)*np]
 		b1, bt := s1[t*np:(t+1)*np], st[t*np:(t+1)*np]
 		a1, at, b1, bt = a1[:len(row)], at[:len(row)], b1[:len(row)], bt[:len(row)]
+		for len(row) >= 4 && len(a1) >= 4 && len(at) >= 4 && len(b1) >= 4 && len(bt) >= 4 { // unrolled by four (see searchDot)
+			r, p1, pt, q1, qt := (*[4]float64)(row), (*[4]float64)(a1), (*[4]float64)(at), (*[4]float64)(b1), (*[4]float64)(bt)
+			q1[0], qt[0] = p1[0]+r[0], pt[0]+tt*r[0]
+			q1[1], qt[1] = p1[1]+r[1], pt[1]+tt*r[1]
+			q1[2], qt[2] = p1[2]+r[2], pt[2]+tt*r[2]
+			q1[3], qt[3] = p1[3]+r[3], pt[3]+tt*r[3]
+			row, a1, at, b1, bt = row[4:], a1[4:], at[4:], b1[4:], bt[4:]
+		}
+		a1, at, b1, bt = a1[:len(row)], at[:len(row)], b1[:len(row)], bt[:len(row)]
 		for c, v := range row {
 			b1[c] = a1[c] + v
 			bt[c] = at[c] + tt*v
 		}
 	}
-	// Gram matrices over t = k+2..T for k = 0..kk, by one backward sweep.
+	w.grams(kk)
+}
+
+// grams sets gram[k], the lower triangle of the cross-products of the base
+// columns over t = k+2..T, for k = 0..kk. Each entry is the sum of its
+// products in the order t = T, T-1, ..., k+2 (the order of a backward
+// sweep over the rows), so the entries are the same bit for bit whichever
+// loop computes them (TestGramsEqualSweep). The entries with the constant
+// and the trend are the suffix sums s1 and st at m = k+2, already summed
+// in that order (x·1 = x and τ·x = x·τ exactly). The others are products
+// of y_{t-1} and the differences Δy_{t-j}, j = 0..kk, which are shifts of
+// one vector: each entry is one dot product of two contiguous runs, summed
+// in a register, instead of a read-modify-write of every entry at every
+// row (several times dearer under WebAssembly than natively).
+func (w *Searcher) grams(kk int) {
+	T, np, ys := w.T, w.p+1, w.ys
 	if len(w.gram) < kk+1 {
 		w.gram = append(w.gram, make([][]float64, kk+1-len(w.gram))...)
 	}
 	w.gram = w.gram[:kk+1]
-	w.acc = searchGrow(w.acc, np*np)
-	acc := w.acc
-	for i := range acc {
-		acc[i] = 0
-	}
-	for t := T; t >= 2; t-- {
-		row := x[t*np : (t+1)*np]
-		for i, xi := range row {
-			ai := acc[i*np : i*np+i+1]
-			ri := row[:len(ai)] // one bounds check per row, none in the loop
-			for j, v := range ri {
-				ai[j] += xi * v
+	for k := range w.gram {
+		w.gram[k] = searchGrow(w.gram[k], np*np)
+		g, s1, st := w.gram[k], w.s1[(k+2)*np:(k+3)*np], w.st[(k+2)*np:(k+3)*np]
+		for i := 0; i < np; i++ {
+			g[i*np] = s1[i]
+			if i >= 1 {
+				g[i*np+1] = st[i]
 			}
 		}
-		if k := t - 2; k <= kk {
-			w.gram[k] = searchGrow(w.gram[k], np*np)
-			copy(w.gram[k], acc)
+	}
+	// Runs indexed by u = T - t (t = T..2, u = 0..T-2): ylag[u] = y_{t-1},
+	// dys[u+j] = Δy_{t-j} (0 where t-j < 2, as in the rows).
+	n := T - 1
+	w.acc = searchGrow(w.acc, n+n+kk)
+	ylag, dys := w.acc[:n], w.acc[n:n+n+kk]
+	for u := 0; u < n; u++ {
+		t := T - u
+		ylag[u] = ys[t-2]
+		dys[u] = ys[t-1] - ys[t-2]
+	}
+	for u := n; u < len(dys); u++ {
+		dys[u] = 0
+	}
+	// col returns the run of base column c (2: y_{t-1}, 2+j: Δy_{t-j},
+	// p: Δy_t).
+	col := func(c int) []float64 {
+		if c == 2 {
+			return ylag
+		}
+		j := 0
+		if c < w.p {
+			j = c - 2
+		}
+		return dys[j : j+n]
+	}
+	head := max(0, T-kk-2) // rows t = T..kk+3 come before the first order's sample ends
+	for i := 2; i < np; i++ {
+		a := col(i)
+		for j := 2; j <= i; j++ {
+			b := col(j)
+			s := longDot(a[:head], b[:head])
+			for u := head; u < n; u++ {
+				s += a[u] * b[u]
+				if k := T - u - 2; k <= kk {
+					w.gram[k][i*np+j] = s
+				}
+			}
 		}
 	}
 }
@@ -389,38 +472,57 @@ func forwardScaled(l, linv, d, v, w []float64, K, n int) {
 
 // breakVectors computes, for tb, the raw cross-products of each break
 // column of spec with every base column (and Δy), and between break columns.
-// It returns the number of break columns.
+// It returns the number of break columns. The cross-products between break
+// columns over t > TB are
+//
+//	DU·DU = n,  DU·DT = Σ τ_t - τ_TB n,  DT·DT = Σ τ_t² - 2 τ_TB Σ τ_t + τ_TB² n,
+//	D·D = DU·D = 1,  DT·D = 1/T
+//
+// (n = T - TB; DT scaled by 1/T as τ).
 func (w *Searcher) breakVectors(spec *Spec, tb int) int {
 	T := w.T
 	m := tb + 1
 	tauTB := (float64(tb) - float64(T+1)/2) / float64(T)
-	nb := 0
 	np := w.p + 1
-	for _, on := range [3]struct {
-		ok   bool
-		code int
-	}{{spec.Terms.Level, codeDU}, {spec.Terms.Slope, codeDT}, {spec.Terms.Dummy, codeD}} {
-		if !on.ok {
-			continue
-		}
-		w.bcode[nb] = on.code
-		v := w.bv[nb*np : (nb+1)*np]
-		s1, st, x := w.s1[m*np:(m+1)*np], w.st[m*np:(m+1)*np], w.x[m*np:(m+1)*np]
-		switch on.code {
-		case codeDU:
-			copy(v, s1)
-		case codeDT:
-			for c := range v {
-				v[c] = st[c] - tauTB*s1[c]
-			}
-		default:
-			copy(v, x)
-		}
+	s1, st := w.s1[m*np:(m+1)*np], w.st[m*np:(m+1)*np]
+	st = st[:len(s1)]
+	n := s1[0]
+	// cr[a][b], a >= b, by term: 0 DU, 1 DT, 2 D.
+	var cr [3][3]float64
+	var term [3]int
+	nb := 0
+	if spec.Terms.Level {
+		w.bcode[nb], term[nb] = codeDU, 0
+		copy(w.bv[:np], s1)
+		cr[0][0] = n
 		nb++
 	}
-	for i := 0; i < nb; i++ {
-		for j := 0; j <= i; j++ {
-			w.bb[i*3+j] = w.breakCross(w.bcode[i], w.bcode[j], m, tauTB)
+	if spec.Terms.Slope {
+		w.bcode[nb], term[nb] = codeDT, 1
+		v := w.bv[nb*np : (nb+1)*np]
+		v = v[:len(s1)]
+		for c, a := range s1 {
+			v[c] = st[c] - tauTB*a
+		}
+		cr[1][1] = st[1] - 2*tauTB*st[0] + tauTB*tauTB*n
+		cr[1][0] = st[0] - tauTB*n
+		nb++
+	}
+	if spec.Terms.Dummy {
+		w.bcode[nb], term[nb] = codeD, 2
+		copy(w.bv[nb*np:(nb+1)*np], w.x[m*np:(m+1)*np])
+		cr[2][2], cr[2][0], cr[2][1] = 1, 1, 1/float64(T)
+		nb++
+	}
+	// The lower triangle of bb, written out (nb <= 3).
+	t0 := term[0]
+	w.bb[0] = cr[t0][t0]
+	if nb > 1 {
+		t1 := term[1]
+		w.bb[3], w.bb[4] = cr[t1][t0], cr[t1][t1]
+		if nb > 2 {
+			t2 := term[2]
+			w.bb[6], w.bb[7], w.bb[8] = cr[t2][t0], cr[t2][t1], cr[t2][t2]
 		}
 	}
 	return nb
@@ -444,29 +546,6 @@ func (w *Searcher) residualise(f *pfactor, nb, n int) {
 			dot := searchDot(row, out[:i])
 			out[i] = (v[c]*d[i] - dot) * linv[i]
 		}
-	}
-}
-
-// breakCross is the cross-product of two break columns over t > TB.
-func (w *Searcher) breakCross(a, b, m int, tauTB float64) float64 {
-	if a < b {
-		a, b = b, a
-	}
-	np := w.p + 1
-	n := w.s1[m*np]
-	switch {
-	case a == codeDU && b == codeDU:
-		return n
-	case a == codeDT && b == codeDT:
-		return w.st[m*np+1] - 2*tauTB*w.st[m*np] + tauTB*tauTB*n
-	case a == codeD && b == codeD:
-		return 1
-	case a == codeDU && b == codeDT:
-		return w.st[m*np] - tauTB*n
-	case a == codeDU && b == codeD:
-		return 1
-	default: // DT × D
-		return 1 / float64(w.T)
 	}
 }
 
@@ -542,8 +621,9 @@ func (w *Searcher) search(spec *Spec, path bool) (Candidate, []Candidate, error)
 	w.factors(spec)
 	bestScore := math.Inf(1)
 	var exact exactSet
+	var c Candidate
 	for tb := lo; tb <= hi; tb++ {
-		c, st := w.at(spec, tb)
+		st := w.at(spec, tb, &c)
 		if st == fitExact {
 			exact.add([]int{tb})
 			continue
@@ -579,18 +659,23 @@ func (w *Searcher) search(spec *Spec, path bool) (Candidate, []Candidate, error)
 	return best, nil, nil
 }
 
-// at estimates the regression at tb with the spec's lag rule.
-func (w *Searcher) at(spec *Spec, tb int) (Candidate, fitStatus) {
+// at estimates the regression at tb with the spec's lag rule into c (set
+// when the status is fitOK).
+func (w *Searcher) at(spec *Spec, tb int, c *Candidate) fitStatus {
 	nb := w.breakVectors(spec, tb)
 	k := spec.Lags
 	if spec.LagRule != core.LagFixed {
 		var st fitStatus
-		k, st = w.selectLag(spec, nb)
+		if nb == 1 {
+			k, st = w.selectLag1(spec)
+		} else {
+			k, st = w.selectLag(spec, nb)
+		}
 		if st != fitOK {
-			return Candidate{}, st
+			return st
 		}
 	}
-	return w.final(spec, tb, k, nb)
+	return w.final(spec, tb, k, nb, c)
 }
 
 // smallSystem solves, with core.Normal, the regression of the residualised
@@ -796,15 +881,133 @@ func (w *Searcher) selectLag(spec *Spec, nb int) (int, fitStatus) {
 	return best, fitOK
 }
 
+// selectLag1 is selectLag for one break column written out with scalars
+// (tLast's one-column case and the cumulative updates inline, no closure):
+// the same operations in the same order, so the same order is chosen
+// (TestSelectLag1EqualsGeneral).
+func (w *Searcher) selectLag1(spec *Spec) (int, fitStatus) {
+	f := &w.sel
+	kk := w.kk
+	nd := len(f.codes) - 1 - kk
+	i0 := nd + 1
+	if f.rank < i0 {
+		return 0, fitSkip
+	}
+	kTop := min(f.rank-i0, kk)
+	w.residualise(f, 1, i0+kTop)
+	n := w.T - kk - 1
+	K := len(f.codes)
+	wb, ry := w.wb[:i0+kTop], f.ry[:i0+kTop]
+	bb0 := w.bb[0]
+	s00, sy, yy := bb0, w.bv[w.p], f.yy
+	for r := 0; r < i0-1; r++ {
+		wi := wb[r]
+		s00 -= wi * wi
+		sy -= wi * ry[r]
+		yy -= ry[r] * ry[r]
+	}
+	ic := spec.LagRule == core.LagAIC || spec.LagRule == core.LagBIC
+	pen := 2.0
+	if spec.LagRule == core.LagBIC {
+		pen = math.Log(float64(n))
+	}
+	best, bestIC := 0, math.Inf(1)
+	for k := 0; k <= kTop; k++ {
+		r := i0 - 1 + k
+		lrr := f.l[r*K+r]
+		a, b := wb[r]*lrr, sy
+		xx, xy := lrr*lrr, ry[r]*lrr
+		// tLast with one break column.
+		df := n - (r + 2)
+		ok := df > 0 && s00 > 1e-10*bb0 && s00 > 1e-12*s00
+		var ssr, t2 float64
+		if ok {
+			qxx, qxy, qyy := a*a/s00, a*b/s00, b*b/s00
+			px := xx - qxx
+			ok = px > 1e-12*xx
+			if ok {
+				zx := xy - qxy
+				ssr = yy - qyy - zx*zx/px
+				if ssr <= ExactFitTol*f.yy {
+					// Every larger order fits exactly too (nested, same sample).
+					return k, fitExact
+				}
+				ok = !math.IsNaN(ssr)
+				t2 = zx * zx / px / (ssr / float64(df))
+			}
+		}
+		if !ok {
+			if k == 0 {
+				return 0, fitSkip
+			}
+			break
+		}
+		if ic {
+			if v := math.Log(ssr/float64(n)) + pen*float64(r+2)/float64(n); v < bestIC {
+				best, bestIC = k, v
+			}
+		} else if k > 0 && t2 > TSigCritical*TSigCritical {
+			best = k // the largest significant order wins
+		}
+		wi := wb[r]
+		s00 -= wi * wi
+		sy -= wi * ry[r]
+		yy -= ry[r] * ry[r]
+	}
+	return best, fitOK
+}
+
 // final estimates the k-lag regression at tb on t = k+2..T: P = [const,
 // trend, lags 1..k] is factored once per series, y_{t-1} is the target
 // column, and the breaks are residualised on P.
-func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
+func (w *Searcher) final(spec *Spec, tb, k, nb int, c *Candidate) fitStatus {
 	f := &w.fin[k]
 	K := len(f.codes)
 	if f.rank < K {
-		return Candidate{}, fitSkip
+		return fitSkip
 	}
+	switch nb {
+	case 1:
+		w.finalResid1(f)
+	case 2:
+		w.finalResid2(f)
+	default:
+		w.finalResid(f, nb)
+	}
+	n := w.T - k - 1
+	Ktot := K + nb + 1
+	if spec.OnlyTAlpha && spec.Rule == MinTAlpha {
+		// Statistic only: t_α from the written-out factorisation.
+		t2, sign, _, st := w.tLast(nb, f.xxRes, f.xyRes, f.yyRes, f.yy, n-Ktot)
+		*c = Candidate{TB: tb, Lags: k, NObs: n, Alpha: math.NaN(), TAlpha: sign * math.Sqrt(t2),
+			TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
+		return st
+	}
+	switch nb {
+	case 1:
+		return w.final1(tb, k, n, Ktot, f, c)
+	case 2:
+		return w.final2(tb, k, n, Ktot, f, c)
+	}
+	tA, ssr, st := w.smallSystem(nb, w.xb[:nb], f.xxRes, f.xyRes, f.yyRes, f.yy, n, Ktot)
+	if st != fitOK {
+		return st
+	}
+	m := &w.nrm
+	*c = Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + m.Coef[nb], TAlpha: tA,
+		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
+	s2 := ssr / float64(n-Ktot)
+	for i := 0; i < nb; i++ {
+		w.setBreakT(c, i, m.Coef[i]/math.Sqrt(s2*m.InvDiag(i)))
+	}
+	return fitOK
+}
+
+// finalResid residualises the nb break columns on the final factor f and
+// sets the residual cross-products w.sbb, w.sby (with Δy) and w.xb (with
+// y_{t-1}): the general form of finalResid1 and finalResid2.
+func (w *Searcher) finalResid(f *pfactor, nb int) {
+	K := len(f.codes)
 	w.residualise(f, nb, K)
 	np := w.p + 1
 	for i := 0; i < nb; i++ {
@@ -814,57 +1017,202 @@ func (w *Searcher) final(spec *Spec, tb, k, nb int) (Candidate, fitStatus) {
 		w.sby[i] = w.bv[i*np+w.p]
 		w.xb[i] = w.bv[i*np+2]
 	}
-	if nb == 1 {
-		// The same updates with scalar accumulators: the index arithmetic of
-		// the general loop costs several times more under WebAssembly.
-		wb, ry, rx := w.wb[:K], f.ry[:K], f.rx[:K]
-		s00, sy, xb := w.sbb[0], w.sby[0], w.xb[0]
-		for r, wi := range wb {
-			s00 -= wi * wi
-			sy -= wi * ry[r]
-			xb -= wi * rx[r]
-		}
-		w.sbb[0], w.sby[0], w.xb[0] = s00, sy, xb
-	} else {
-		for r := 0; r < K; r++ {
-			for i := 0; i < nb; i++ {
-				wi := w.wb[i*w.maxK+r]
-				for j := 0; j <= i; j++ {
-					w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
-				}
-				w.sby[i] -= wi * f.ry[r]
-				w.xb[i] -= wi * f.rx[r]
+	for r := 0; r < K; r++ {
+		for i := 0; i < nb; i++ {
+			wi := w.wb[i*w.maxK+r]
+			for j := 0; j <= i; j++ {
+				w.sbb[i*3+j] -= wi * w.wb[j*w.maxK+r]
 			}
+			w.sby[i] -= wi * f.ry[r]
+			w.xb[i] -= wi * f.rx[r]
 		}
 	}
-	n := w.T - k - 1
-	Ktot := K + nb + 1
-	if spec.OnlyTAlpha && spec.Rule == MinTAlpha {
-		// Statistic only: t_α from the written-out factorisation.
-		t2, sign, _, st := w.tLast(nb, f.xxRes, f.xyRes, f.yyRes, f.yy, n-Ktot)
-		return Candidate{TB: tb, Lags: k, NObs: n, Alpha: math.NaN(), TAlpha: sign * math.Sqrt(t2),
-			TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}, st
+}
+
+// finalResid1 is finalResid for one break column, written out with
+// scalars and with the forward solve of residualise in the same loop: the
+// same operations in the same order (the results are equal bit for bit,
+// TestFinalFastEqualsGeneral), without the index arithmetic, bounds checks
+// and stores of the general loops, which cost several times more under
+// WebAssembly than natively.
+func (w *Searcher) finalResid1(f *pfactor) {
+	K := len(f.codes)
+	np := w.p + 1
+	codes, d, linv, ry, rx := f.codes[:K], f.d[:K], f.linv[:K], f.ry[:K], f.rx[:K]
+	v0 := w.bv[:np]
+	o0 := w.wb[:K]
+	s00, y0, x0 := w.bb[0], v0[w.p], v0[2]
+	for i, c := range codes {
+		row := f.l[i*K : i*K+i]
+		p0 := o0[:len(row)]
+		a0 := 0.0
+		for j, l := range row {
+			a0 += l * p0[j]
+		}
+		r0 := (v0[c]*d[i] - a0) * linv[i]
+		o0[i] = r0
+		s00 -= r0 * r0
+		y0 -= r0 * ry[i]
+		x0 -= r0 * rx[i]
 	}
-	tA, ssr, st := w.smallSystem(nb, w.xb[:nb], f.xxRes, f.xyRes, f.yyRes, f.yy, n, Ktot)
-	if st != fitOK {
-		return Candidate{}, st
+	w.sbb[0], w.sby[0], w.xb[0] = s00, y0, x0
+}
+
+// finalResid2 is finalResid for two break columns (see finalResid1).
+func (w *Searcher) finalResid2(f *pfactor) {
+	K := len(f.codes)
+	np := w.p + 1
+	codes, d, linv, ry, rx := f.codes[:K], f.d[:K], f.linv[:K], f.ry[:K], f.rx[:K]
+	v0, v1 := w.bv[:np], w.bv[np:2*np]
+	o0, o1 := w.wb[:K], w.wb[w.maxK:w.maxK+K]
+	s00, s10, s11 := w.bb[0], w.bb[3], w.bb[4]
+	y0, y1, x0, x1 := v0[w.p], v1[w.p], v0[2], v1[2]
+	for i, c := range codes {
+		row := f.l[i*K : i*K+i]
+		p0, p1 := o0[:len(row)], o1[:len(row)]
+		a0, a1 := 0.0, 0.0
+		for j, l := range row {
+			a0 += l * p0[j]
+			a1 += l * p1[j]
+		}
+		di, li := d[i], linv[i]
+		r0 := (v0[c]*di - a0) * li
+		r1 := (v1[c]*di - a1) * li
+		o0[i], o1[i] = r0, r1
+		s00 -= r0 * r0
+		s10 -= r1 * r0
+		s11 -= r1 * r1
+		y0 -= r0 * ry[i]
+		y1 -= r1 * ry[i]
+		x0 -= r0 * rx[i]
+		x1 -= r1 * rx[i]
 	}
-	m := &w.nrm
-	c := Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + m.Coef[nb], TAlpha: tA,
+	w.sbb[0], w.sbb[3], w.sbb[4] = s00, s10, s11
+	w.sby[0], w.sby[1], w.xb[0], w.xb[1] = y0, y1, x0, x1
+}
+
+// final1 is smallSystem and the t-ratios of final for one break column,
+// with core.Normal's Jacobi-scaled Cholesky solve and InvDiag written out
+// for the 2×2 system [break, y_{t-1}]: the same operations in the same
+// order, so the candidate is equal bit for bit to the general path's
+// (TestFinalFastEqualsGeneral). Everything is computed first and the
+// conditions of smallSystem and core.Normal (a break column in the span of
+// P, a non-positive diagonal or pivot, no degrees of freedom: fitSkip; an
+// exact fit: fitExact; a non-finite t-ratio: fitSkip) are tested together
+// at the end: the values of a valid candidate do not depend on it, and
+// straight-line code avoids the block dispatch of every branch under
+// WebAssembly. It writes the candidate into c when the status is fitOK.
+func (w *Searcher) final1(tb, k, n, Ktot int, f *pfactor, c *Candidate) fitStatus {
+	a00, b0 := w.sbb[0], w.sby[0]
+	a10, a11, b1, yy := w.xb[0], f.xxRes, f.xyRes, f.yyRes
+	d0, d1 := 1/math.Sqrt(a00), 1/math.Sqrt(a11)
+	p0 := a00*d0*d0 - 0.0
+	l00 := math.Sqrt(p0)
+	l10 := (a10*d1*d0 - 0.0) / l00
+	p1 := a11*d1*d1 - l10*l10
+	l11 := math.Sqrt(p1)
+	z0 := b0 * d0 / l00
+	z1 := (b1*d1 - l10*z0) / l11
+	c1 := z1 / l11
+	c0 := (z0 - l10*c1) / l00
+	ssr := yy - z0*z0 - z1*z1
+	c0 *= d0
+	c1 *= d1
+	if ssr < 0 { // clamped at 0, as in core.Normal
+		ssr = 0
+	}
+	df := float64(n - Ktot)
+	// InvDiag(1) and InvDiag(0).
+	w1 := 1 / l11
+	inv1 := w1 * w1 * d1 * d1
+	u0 := 1 / l00
+	u1 := (0 - l10*u0) / l11
+	inv0 := (u0*u0 + u1*u1) * d0 * d0
+	tA := c1 / math.Sqrt(ssr/df*inv1)
+	if !(a00 > 1e-10*w.bb[0] && a00 > 0 && a11 > 0 && !(p0 <= 1e-12) && !(p1 <= 1e-12) && n-Ktot > 0) {
+		return fitSkip
+	}
+	if ssr <= ExactFitTol*f.yy {
+		return fitExact
+	}
+	if math.IsNaN(tA) || math.IsInf(tA, 0) {
+		return fitSkip
+	}
+	*c = Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + c1, TAlpha: tA,
 		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
-	s2 := ssr / float64(n-Ktot)
-	for i := 0; i < nb; i++ {
-		t := m.Coef[i] / math.Sqrt(s2*m.InvDiag(i))
-		switch w.bcode[i] {
-		case codeDU:
-			c.TLevel = t
-		case codeDT:
-			c.TSlope = t
-		default:
-			c.TDummy = t
-		}
+	w.setBreakT(c, 0, c0/math.Sqrt(ssr/df*inv0))
+	return fitOK
+}
+
+// final2 is final1 for two break columns: the 3×3 system [break 1,
+// break 2, y_{t-1}] written out.
+func (w *Searcher) final2(tb, k, n, Ktot int, f *pfactor, c *Candidate) fitStatus {
+	a00, a10, a11 := w.sbb[0], w.sbb[3], w.sbb[4]
+	a20, a21, a22 := w.xb[0], w.xb[1], f.xxRes
+	b0, b1, b2, yy := w.sby[0], w.sby[1], f.xyRes, f.yyRes
+	d0, d1, d2 := 1/math.Sqrt(a00), 1/math.Sqrt(a11), 1/math.Sqrt(a22)
+	p0 := a00*d0*d0 - 0.0
+	l00 := math.Sqrt(p0)
+	l10 := (a10*d1*d0 - 0.0) / l00
+	l20 := (a20*d2*d0 - 0.0) / l00
+	p1 := a11*d1*d1 - l10*l10
+	l11 := math.Sqrt(p1)
+	l21 := (a21*d2*d1 - (0 + l20*l10)) / l11 // "0 +": the sum of core.Normal, signed zeros included
+	p2 := a22*d2*d2 - (l20*l20 + l21*l21)
+	l22 := math.Sqrt(p2)
+	z0 := b0 * d0 / l00
+	z1 := (b1*d1 - l10*z0) / l11
+	z2 := (b2*d2 - l20*z0 - l21*z1) / l22
+	c2 := z2 / l22
+	c1 := (z1 - l21*c2) / l11
+	c0 := (z0 - l10*c1 - l20*c2) / l00
+	ssr := yy - z0*z0 - z1*z1 - z2*z2
+	c0 *= d0
+	c1 *= d1
+	c2 *= d2
+	if ssr < 0 {
+		ssr = 0
 	}
-	return c, fitOK
+	df := float64(n - Ktot)
+	// InvDiag(2), InvDiag(0) and InvDiag(1).
+	w2 := 1 / l22
+	inv2 := w2 * w2 * d2 * d2
+	u0 := 1 / l00
+	u1 := (0 - l10*u0) / l11
+	u2 := (0 - l20*u0 - l21*u1) / l22
+	inv0 := (u0*u0 + u1*u1 + u2*u2) * d0 * d0
+	v1 := 1 / l11
+	v2 := (0 - l21*v1) / l22
+	inv1 := (v1*v1 + v2*v2) * d1 * d1
+	tA := c2 / math.Sqrt(ssr/df*inv2)
+	if !(a00 > 1e-10*w.bb[0] && a11 > 1e-10*w.bb[4] && a00 > 0 && a11 > 0 && a22 > 0 &&
+		!(p0 <= 1e-12) && !(p1 <= 1e-12) && !(p2 <= 1e-12) && n-Ktot > 0) {
+		return fitSkip
+	}
+	if ssr <= ExactFitTol*f.yy {
+		return fitExact
+	}
+	if math.IsNaN(tA) || math.IsInf(tA, 0) {
+		return fitSkip
+	}
+	*c = Candidate{TB: tb, Lags: k, NObs: n, Alpha: 1 + c2, TAlpha: tA,
+		TLevel: math.NaN(), TSlope: math.NaN(), TDummy: math.NaN()}
+	s2 := ssr / df
+	w.setBreakT(c, 0, c0/math.Sqrt(s2*inv0))
+	w.setBreakT(c, 1, c1/math.Sqrt(s2*inv1))
+	return fitOK
+}
+
+// setBreakT stores the t-ratio t of break column i in c.
+func (w *Searcher) setBreakT(c *Candidate, i int, t float64) {
+	switch w.bcode[i] {
+	case codeDU:
+		c.TLevel = t
+	case codeDT:
+		c.TSlope = t
+	default:
+		c.TDummy = t
+	}
 }
 
 // cholPrefix factors the Jacobi-scaled K×K matrix D A D (lower triangle of
@@ -900,9 +1248,33 @@ func cholPrefix(a, b []float64, K int, l, d, z []float64) int {
 	return K
 }
 
+// searchDot is Σ x_i y_i summed in order from i = 0 (short vectors: it is
+// inlined).
 func searchDot(x, y []float64) float64 {
 	s := 0.0
 	y = y[:len(x)] // hoists the bounds check out of the loop
+	for i, v := range x {
+		s += v * y[i]
+	}
+	return s
+}
+
+// longDot is searchDot for long vectors: the loop is unrolled by four with
+// the one accumulator, so the sum is the same bit for bit. Under
+// WebAssembly every taken branch of a Go function goes through the
+// function's block dispatcher, which costs more than the product itself.
+func longDot(x, y []float64) float64 {
+	s := 0.0
+	y = y[:len(x)]
+	for len(x) >= 4 && len(y) >= 4 {
+		a, b := (*[4]float64)(x), (*[4]float64)(y) // no bounds checks below
+		s += a[0] * b[0]
+		s += a[1] * b[1]
+		s += a[2] * b[2]
+		s += a[3] * b[3]
+		x, y = x[4:], y[4:]
+	}
+	y = y[:len(x)]
 	for i, v := range x {
 		s += v * y[i]
 	}
@@ -916,7 +1288,9 @@ func standardize(dst, y []float64) []float64 {
 	dst = searchGrow(dst, len(y))
 	s := 0.0
 	for _, v := range y {
-		s = max(s, math.Abs(v))
+		if a := math.Abs(v); !(a <= s) && s == s { // max(s, |v|) without the call; NaN wins, as in max
+			s = a
+		}
 	}
 	if s > 0 && !math.IsInf(s, 0) {
 		for i, v := range y {

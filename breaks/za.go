@@ -108,12 +108,14 @@ func runZA(ctx context.Context, y []float64, cfg *core.Config) (*schema.Result, 
 	if err != nil {
 		return nil, err
 	}
-	var w Searcher
+	w := getSearcher()
 	best, path, err := w.Search(y, &spec, !cfg.NoPath)
 	if err != nil {
+		putSearcher(w)
 		return nil, WrapError(id, err)
 	}
-	res := ioResult(id, y, cfg, &spec, best, path)
+	res := ioResult(id, y, cfg, &spec, best, path) // copies the path
+	putSearcher(w)
 	res.Null = zaNull
 	res.Variant = "model " + modelName(cfg.Shift)
 	res.CriticalValues = ZACritical(cfg.Shift)

@@ -159,7 +159,11 @@ func Standardize(dst, y []float64) (out []float64, mean, sd float64) {
 	scale := 1.0
 	big := 0.0
 	for _, v := range y {
-		big = math.Max(big, math.Abs(v))
+		// math.Max(big, |v|) without the call (a function call under
+		// WebAssembly): NaN wins and stays, as in math.Max.
+		if a := math.Abs(v); !(a <= big) && big == big {
+			big = a
+		}
 	}
 	if big > 1e150 || (big > 0 && big < 1e-150) {
 		scale = big

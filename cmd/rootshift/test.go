@@ -328,6 +328,9 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 	type done struct {
 		sr schema.Series
 		in dataset.Series
+		// enc is the series' JSON element, encoded by the worker when the
+		// output streams (the writer only writes the bytes, in order).
+		enc []byte
 	}
 	work := func(ctx context.Context, i int) (done, error) {
 		j := jobsList[i]
@@ -341,7 +344,7 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			if m != nil {
 				m.finished(i+1, true)
 			}
-			return done{sr, dataset.Series{Name: j.name, Column: j.in.Column}}, nil
+			return done{sr, dataset.Series{Name: j.name, Column: j.in.Column}, nil}, nil
 		}
 		jopt := opt
 		if m != nil {
@@ -366,7 +369,14 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 		}
 		in := j.in
 		in.Name = j.name
-		return done{sr, in}, nil
+		if stream != nil {
+			b, err := stream.Encode(&sr)
+			if err != nil {
+				return done{}, err
+			}
+			return done{sr: schema.Series{Errors: sr.Errors}, in: in, enc: b}, nil
+		}
+		return done{sr, in, nil}, nil
 	}
 	n := 0
 	sink := func(d done) error {
@@ -375,6 +385,9 @@ func (e *env) analyzeFiles(files []string, s schema.Settings, o outputOpts, afte
 			failed++
 		}
 		if stream != nil {
+			if d.enc != nil {
+				return stream.SeriesEncoded(d.enc)
+			}
 			return stream.Series(&d.sr)
 		}
 		doc.Series = append(doc.Series, d.sr)
