@@ -396,4 +396,4 @@ func TestProgressInBrowser(t *testing.T) {
 
 // seriesPosition is the start of the page's overall progress text: how
 // many of the series are done.
-var seriesPosition = regexp.MustCompile(`^\d+ of \d+ series done`)
+var seriesPosition = regexp.MustCompile(`^(\d+ of \d+ series done|Series \d+ of \d+)`)
