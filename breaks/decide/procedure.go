@@ -282,7 +282,11 @@ func (w *work) run(ctx context.Context, id string, y []float64, cfg *core.Config
 		w.errs = append(w.errs, schema.Error{Test: id, Message: lerr.Error()})
 		return nil, nil
 	}
-	if len(y) != len(w.y) {
+	switch {
+	case len(y) == len(w.y)-1 && len(w.in.Dates) == len(w.y):
+		// The first difference Δy_t is dated at t.
+		cfg.Dates = w.in.Dates[1:]
+	case len(y) != len(w.y):
 		cfg.Dates = nil
 	}
 	defer func() {

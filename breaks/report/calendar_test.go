@@ -104,3 +104,37 @@ func TestPhoneReadable(t *testing.T) {
 		}
 	}
 }
+
+// TestResultPlotDates: a search path of a dated series is drawn against
+// calendar dates (year ticks), and a result on the first difference is
+// dated one observation later (its index i is Δy at i+1).
+func TestResultPlotDates(t *testing.T) {
+	d := months(2000, 1, 120)
+	in := dataset.Series{Name: "x", Values: make([]float64, 120), Dates: d}
+	var path []schema.PathPoint
+	for i := 18; i <= 102; i++ {
+		path = append(path, schema.PathPoint{Index: i, Statistic: -float64(i % 7)})
+	}
+	r := schema.Result{Test: "za", Path: path, CriticalValues: map[string]float64{"0.05": -4.8}}
+	svg := ResultPlot(r, &in)
+	checkSVG(t, "dated path", svg)
+	for _, want := range []string{">2002<", ">2006<", "last observation of the old regime"} {
+		if !strings.Contains(svg, want) {
+			t.Errorf("dated path plot lacks %q", want)
+		}
+	}
+	if plain := ResultPlot(r, nil); strings.Contains(plain, ">2002<") || !strings.Contains(plain, "(observation)") {
+		t.Error("without dates the axis should count observations")
+	}
+	// On the first difference, index i is Δy dated at observation i+1: the
+	// 2004 tick sits one index earlier than on the levels.
+	r.Variant = "first difference"
+	x := regexp.MustCompile(`<text x="([0-9.]+)"[^>]*>2004<`)
+	diff, lev := x.FindStringSubmatch(ResultPlot(r, &in)), x.FindStringSubmatch(PathPlot(r, d))
+	if diff == nil || lev == nil {
+		t.Fatalf("no 2004 tick: %v %v", diff, lev)
+	}
+	if a, _ := strconv.ParseFloat(diff[1], 64); a >= func() float64 { b, _ := strconv.ParseFloat(lev[1], 64); return b }() {
+		t.Errorf("first-difference path: 2004 tick at x %s, levels at %s; want it earlier", diff[1], lev[1])
+	}
+}

@@ -298,7 +298,7 @@ func htmlPlots(e *errWriter, s *schema.Series, in *dataset.Series) {
 	for i := range s.Results {
 		r := &s.Results[i]
 		if len(r.Path) > 0 || (r.Sequence != nil && len(r.Sequence.Index) > 0) || (r.Surface != nil && len(r.Surface.Rows) > 0) {
-			figs = append(figs, PathSVG(*r))
+			figs = append(figs, ResultPlot(*r, in))
 			caps = append(caps, "Search statistic of "+r.Test+" and its critical value.")
 		}
 	}

@@ -578,7 +578,26 @@ func seriesSVG(s dataset.Series, breaks []schema.Break, episodes []schema.Episod
 // sequence with explosive episodes shaded; or else the rows of
 // Result.Surface (the best statistic over second breaks for each first
 // break). It returns a complete <svg> element.
-func PathSVG(r schema.Result) string {
+func PathSVG(r schema.Result) string { return PathPlot(r, nil) }
+
+// ResultPlot is the search plot of r for the series in (nil: observation
+// numbers): PathPlot with in's dates, shifted by one for a result on the
+// first difference (dated at its end).
+func ResultPlot(r schema.Result, in *dataset.Series) string {
+	var dates []string
+	if in != nil {
+		dates = seriesDates(in)
+	}
+	if len(dates) > 1 && strings.Contains(r.Variant, "first difference") {
+		dates = dates[1:]
+	}
+	return PathPlot(r, dates)
+}
+
+// PathPlot is PathSVG with the x axis in calendar dates when dates labels
+// every observation of the series (ticks at year or quarter boundaries, as
+// in the series plot); nil dates give observation numbers.
+func PathPlot(r schema.Result, dates []string) string {
 	const height = 300
 	var xs, ys, crit []float64
 	var title, xtitle, critLabel string
@@ -678,7 +697,40 @@ func PathSVG(r schema.Result) string {
 	} else {
 		xticks = []float64{xmin}
 	}
-	b.axes(f, yticks, xticks, ystep, func(v float64) string { return tickLabel(v, 1) })
+	xlabel := func(v float64) string { return tickLabel(v, 1) }
+	if len(dates) > 0 && xmax <= float64(len(dates)) && xmin >= 1 {
+		labels := map[float64]string{}
+		if ts, ls := calendarTicks(dates, 8); len(ts) >= 2 {
+			var in []float64
+			for k, t := range ts {
+				if t >= xmin && t <= xmax {
+					in = append(in, t)
+					labels[t] = ls[k]
+				}
+			}
+			if len(in) >= 2 {
+				xticks = in
+				xlabel = func(v float64) string {
+					if l, ok := labels[v]; ok {
+						return l
+					}
+					if i := int(v); i >= 1 && i <= len(dates) {
+						return dates[i-1]
+					}
+					return tickLabel(v, 1)
+				}
+				switch {
+				case len(r.Path) > 0:
+					xtitle = "candidate break date TB (last observation of the old regime)"
+				case r.Surface != nil && r.Sequence == nil:
+					xtitle = "first break TB1 (last observation of the old regime)"
+				default:
+					xtitle = "date (end of the window)"
+				}
+			}
+		}
+	}
+	b.axes(f, yticks, xticks, ystep, xlabel)
 	if hasConst {
 		y := f.Y(critConst)
 		b.line(f.left, y, f.left+f.width, y, colCritical, ` stroke-width="1.5" stroke-dasharray="6,4"`)

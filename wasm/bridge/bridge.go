@@ -279,9 +279,13 @@ func (s *Session) Plots(i int) string {
 				Plot{Kind: "series", Title: "The series", SVG: inline(report.SeriesPlot(in, sr))},
 				Plot{Kind: "acf", Title: "Autocorrelations", SVG: inline(report.ACFSVG(in, 0))})
 		}
+		var in *dataset.Series
+		if i < len(inputs) && inputs[i].Values != nil {
+			in = &inputs[i]
+		}
 		for _, r := range sr.Results {
 			if len(r.Path) > 0 || (r.Sequence != nil && len(r.Sequence.Index) > 0) || (r.Surface != nil && len(r.Surface.Rows) > 0) {
-				plots = append(plots, Plot{Kind: "path", Test: r.Test, Title: r.Test + " search", SVG: inline(report.PathSVG(r))})
+				plots = append(plots, Plot{Kind: "path", Test: r.Test, Title: r.Test + " search", SVG: inline(report.ResultPlot(r, in))})
 			}
 		}
 		return plots, nil
