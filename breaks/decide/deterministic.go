@@ -35,12 +35,31 @@ type detOut struct {
 	trending bool // a significant slope (stationary) or drift (integrated)
 	tstat    float64
 	bp       *schema.Result
+	// fromUnitRoot is set when the break is the date of the Zivot-Andrews
+	// member whose rejection decided stage 5 (Bai-Perron dated none).
+	fromUnitRoot bool
+	slopeShift   bool // that member's model has a slope shift too
+}
+
+// unitRootBreak returns the break of the Zivot-Andrews member that led the
+// union's rejection, if it led: the rejection holds only for its model,
+// a stationary series around a trend with a shift at that date, so the
+// verdict keeps the shift even when Bai-Perron, whose tests lose power when
+// the stationary noise is persistent, dates none (the coherence rule is
+// ours, common practice, no source; the date is the one minimising the
+// Zivot-Andrews t-ratio, Zivot & Andrews 1992).
+func unitRootBreak(ur *unitRootOut) (schema.Break, bool, bool) {
+	if ur == nil || ur.leadIdx < 2 || ur.lead == nil || len(ur.lead.Breaks) == 0 {
+		return schema.Break{}, false, false
+	}
+	m := members[ur.leadIdx]
+	return ur.lead.Breaks[0], true, m.shift == core.ShiftBoth
 }
 
 // zCrit is the two-sided normal critical value at level a.
 func zCrit(a float64) float64 { return math.Sqrt2 * math.Erfinv(1-a) }
 
-func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, error) {
+func (w *work) deterministic(ctx context.Context, stationary bool, ur *unitRootOut) (*detOut, error) {
 	out := &detOut{stage: schema.Stage{Name: "breaks", Level: w.alpha}}
 	zc := zCrit(w.alpha)
 	var target []float64
@@ -61,6 +80,9 @@ func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, err
 				tbs = append(tbs, b.Index)
 			}
 		}
+		if zb, zaLed, _ := unitRootBreak(ur); len(tbs) == 0 && zaLed {
+			tbs = []int{zb.Index}
+		}
 		out.tstat = hacSlopeT(w.z, tbs)
 		out.trending = math.Abs(out.tstat) > zc
 		out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("slope HAC t = %.2f with %d level break(s) in the regression (%s at %g)", out.tstat, len(tbs), signif(out.trending), w.alpha))
@@ -68,7 +90,7 @@ func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, err
 			if lvl != nil {
 				lvl.Variant = strings.TrimPrefix(lvl.Variant+", "+w.scaleWords(), ", ")
 			}
-			return w.finishBreaks(out, lvl, stationary, core.TrendConstant), nil
+			return w.keepUnitRootBreak(w.finishBreaks(out, lvl, stationary, core.TrendConstant), ur), nil
 		}
 		trend = core.TrendLinear
 		target = w.z
@@ -84,7 +106,30 @@ func (w *work) deterministic(ctx context.Context, stationary bool) (*detOut, err
 	if err != nil {
 		return nil, err
 	}
-	return w.finishBreaks(out, res, stationary, trend), nil
+	out = w.finishBreaks(out, res, stationary, trend)
+	if stationary {
+		out = w.keepUnitRootBreak(out, ur)
+	}
+	return out, nil
+}
+
+// keepUnitRootBreak adds the break of the Zivot-Andrews member that led the
+// union's rejection (unitRootBreak) when Bai-Perron dated none.
+func (w *work) keepUnitRootBreak(out *detOut, ur *unitRootOut) *detOut {
+	zb, zaLed, zaSlope := unitRootBreak(ur)
+	if len(out.breaks) > 0 || !zaLed {
+		return out
+	}
+	out.breaks = []schema.Break{zb}
+	out.fromUnitRoot, out.slopeShift = true, zaSlope
+	what := "level shift"
+	if zaSlope {
+		what = "level and slope shift"
+		out.trending = true
+	}
+	out.stage.Decision = "1 break (the unit-root test's date)"
+	out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("the unit root was rejected by %s, whose model is a stationary series around a trend with a %s at %s: that break stays in the model although Bai-Perron does not date it on its own", members[ur.leadIdx].label, what, breakList(out.breaks)))
+	return out
 }
 
 // finishBreaks reads the Bai-Perron result res into the stage.

@@ -79,6 +79,14 @@ func (w *work) stationaryVerdict(v *schema.Verdict, ur *unitRootOut, det *detOut
 		}
 		v.Explanation = fmt.Sprintf("Stationary around %s with breaks at %s%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p = %s, confirmed by the wild bootstrap), and Bai-Perron dates the breaks on the levels. Model it in levels with shift dummies at the break dates; do not difference.",
 			what, breakList(det.breaks), w.onScale(), lead, p)
+		if det.fromUnitRoot {
+			shift := "a level shift"
+			if det.slopeShift {
+				shift = "a shift in level and slope"
+			}
+			v.Explanation = fmt.Sprintf("Stationary around %s with %s at %s%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p = %s, confirmed by the wild bootstrap), whose model has that shift at that date. Bai-Perron does not date it on its own (its tests lose power when the stationary noise is this persistent), so the date rests on the unit-root test: check it against the plot and what is known of the period. Model it in levels with a shift dummy at that date; do not difference.",
+				what, shift, breakList(det.breaks), w.onScale(), lead, p)
+		}
 		if ur.leadIdx < 2 {
 			v.Explanation += " A test without breaks already rejects; the breaks still belong in the model."
 		} else {

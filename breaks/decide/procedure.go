@@ -156,7 +156,7 @@ func Run(ctx context.Context, in Input) (*Outcome, error) {
 	}
 
 	// Stage 6: breaks and trend, on the scale where their inference holds.
-	det, err := w.deterministic(ctx, ur.stationary)
+	det, err := w.deterministic(ctx, ur.stationary, ur)
 	if err != nil {
 		return nil, err
 	}
