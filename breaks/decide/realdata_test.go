@@ -59,6 +59,11 @@ func TestEmploymentNoColumnExplosive(t *testing.T) {
 		if v.Class == decide.ClassExplosive {
 			t.Errorf("%s: called explosive: %s", s.Name, v.Explanation)
 		}
+		// Stationary around a constant mean, with the 2008-09 recession
+		// inside, is not a reading of an employment level anyone would sign.
+		if v.Class == decide.ClassStationary {
+			t.Errorf("%s: called stationary around a constant mean: %s", s.Name, v.Explanation)
+		}
 		if s.Name == "nonfarm" && decide.Direction(v.Class) != decide.DirIntegrated {
 			t.Errorf("nonfarm: class %s, want an integrated class", v.Class)
 		}
