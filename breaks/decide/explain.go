@@ -49,8 +49,8 @@ func (w *work) explosiveVerdict(v *schema.Verdict, ex *explosiveOut) {
 		v.Explanation = fmt.Sprintf("Explosive%s: the recursive regressions of SADF fit the series exactly with an explosive coefficient, so up to rounding it is a deterministic explosive path (the explosive root swamps the noise). No differencing removes an explosive root; model it directly.", w.onScale())
 		return
 	}
-	v.Explanation = fmt.Sprintf("Explosive%s: SADF rejects the unit root in favour of an explosive root, and the rejection survives the wild bootstrap under an integrated null with the series' own drift path and volatility (p = %s)%s. No differencing removes an explosive root; model the episode itself and treat the other tests with caution.",
-		w.onScale(), pText(deref(ex.stage.PValue)), eps)
+	v.Explanation = fmt.Sprintf("Explosive%s: SADF rejects the unit root in favour of an explosive root, and the rejection survives the wild bootstrap under an integrated null with the series' own drift path and volatility (p %s)%s. No differencing removes an explosive root; model the episode itself and treat the other tests with caution.",
+		w.onScale(), pWithBound(deref(ex.stage.PValue), ex.pFloor), eps)
 	if ex.sadf != nil {
 		v.Supporting = append(v.Supporting, describe(ex.sadf))
 	}
@@ -68,7 +68,7 @@ func (w *work) i2Verdict(v *schema.Verdict, ord *orderOut) {
 func (w *work) stationaryVerdict(v *schema.Verdict, ur *unitRootOut, det *detOut) {
 	v.Order = intp(0)
 	lead := members[ur.leadIdx].label
-	p := pText(deref(ur.stage.PValue))
+	p := pWithBound(deref(ur.stage.PValue), ur.pFloor)
 	switch {
 	case len(det.breaks) > 0:
 		v.Class, v.Transform = ClassBreakStationary, TransformShiftDummies
@@ -77,14 +77,14 @@ func (w *work) stationaryVerdict(v *schema.Verdict, ur *unitRootOut, det *detOut
 		if det.trending {
 			what = "a trend"
 		}
-		v.Explanation = fmt.Sprintf("Stationary around %s with breaks at %s%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p = %s, confirmed by the wild bootstrap), and Bai-Perron dates the breaks on the levels. Model it in levels with shift dummies at the break dates; do not difference.",
+		v.Explanation = fmt.Sprintf("Stationary around %s with breaks at %s%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p %s, confirmed by the wild bootstrap), and Bai-Perron dates the breaks on the levels. Model it in levels with shift dummies at the break dates; do not difference.",
 			what, breakList(det.breaks), w.onScale(), lead, p)
 		if det.fromUnitRoot {
 			shift := "a level shift"
 			if det.slopeShift {
 				shift = "a shift in level and slope"
 			}
-			v.Explanation = fmt.Sprintf("Stationary around %s with %s at %s%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p = %s, confirmed by the wild bootstrap), whose model has that shift at that date. Bai-Perron does not date it on its own (its tests lose power when the stationary noise is this persistent), so the date rests on the unit-root test: check it against the plot and what is known of the period. Model it in levels with a shift dummy at that date; do not difference.",
+			v.Explanation = fmt.Sprintf("Stationary around %s with %s at %s%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p %s, confirmed by the wild bootstrap), whose model has that shift at that date. Bai-Perron does not date it on its own (its tests lose power when the stationary noise is this persistent), so the date rests on the unit-root test: check it against the plot and what is known of the period. Model it in levels with a shift dummy at that date; do not difference.",
 				what, shift, breakList(det.breaks), w.onScale(), lead, p)
 		}
 		if ur.leadIdx < 2 {
@@ -94,10 +94,10 @@ func (w *work) stationaryVerdict(v *schema.Verdict, ur *unitRootOut, det *detOut
 		}
 	case det.trending:
 		v.Class, v.Transform = ClassTrendStationary, TransformDetrend
-		v.Explanation = fmt.Sprintf("Stationary around a linear trend%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p = %s, confirmed by the wild bootstrap) and the slope is significant. Model it in levels with a deterministic trend; differencing would over-difference.", w.onScale(), lead, p)
+		v.Explanation = fmt.Sprintf("Stationary around a linear trend%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p %s, confirmed by the wild bootstrap) and the slope is significant. Model it in levels with a deterministic trend; differencing would over-difference.", w.onScale(), lead, p)
 	default:
 		v.Class, v.Transform = ClassStationary, TransformNone
-		v.Explanation = fmt.Sprintf("Stationary%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p = %s, confirmed by the wild bootstrap), with no significant slope and no break. Model it in levels.", w.onScale(), lead, p)
+		v.Explanation = fmt.Sprintf("Stationary%s: the unit root is rejected by the union of unit-root tests (strongest: %s; p %s, confirmed by the wild bootstrap), with no significant slope and no break. Model it in levels.", w.onScale(), lead, p)
 	}
 	if len(det.breaks) == 0 && ur.leadIdx >= 2 {
 		v.Explanation += " The rejection came from a test that allows a break, but Bai-Perron finds no break at this level: the shift, if any, is too small to date; check the plot before leaving it out of the model."

@@ -80,6 +80,7 @@ func meanSE(d []float64) (m, se float64) {
 }
 
 type explosiveOut struct {
+	pFloor    bool // the p-value is the bootstrap's smallest, a bound
 	explosive bool
 	stage     schema.Stage
 	sadf      *schema.Result
@@ -168,6 +169,7 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 		out.stage.Evidence = append(out.stage.Evidence, "the bootstrap failed: "+err.Error())
 		return out, nil
 	}
+	out.pFloor = p <= 1/float64(1+explosiveDraws-failed)+1e-12 && (res.PValue == nil || *res.PValue < p)
 	if res.PValue != nil {
 		p = max(p, *res.PValue)
 	}
@@ -188,7 +190,7 @@ func (w *work) explosive(ctx context.Context) (*explosiveOut, error) {
 			out.stage.Evidence = append(out.stage.Evidence, fmt.Sprintf("the explosive-looking stretch ending at %s is an accelerating fall that reverses before the end of the sample: a downturn and recovery, not an explosive root", w.dateOf(e)))
 		}
 	}
-	ev := fmt.Sprintf("SADF = %.3f exceeds its tabulated %g critical value; wild bootstrap p = %s under an I(1) null with %s (%d draws", stat, alpha, pText(p), w.driftWords(null), explosiveDraws)
+	ev := fmt.Sprintf("SADF = %.3f exceeds its tabulated %g critical value; wild bootstrap p %s under an I(1) null with %s (%d draws", stat, alpha, pWithBound(p, out.pFloor), w.driftWords(null), explosiveDraws)
 	if failed > 0 {
 		ev += fmt.Sprintf(", %d failed", failed)
 	}

@@ -184,6 +184,18 @@ type unitRootOut struct {
 	// not confirm the rejection (bootP is its p-value).
 	unconfirmed bool
 	bootP       float64
+	// pFloor is set when the p-value is the smallest the bootstrap can give
+	// (no draw reached the statistic): it is a bound, p <= 1/(B+1).
+	pFloor bool
+}
+
+// pWithBound is "= 0.030", or "<= 0.010" for a p-value at the bootstrap's floor
+// (ASCII, like pWords, so that every output format prints it as it is).
+func pWithBound(p float64, floor bool) string {
+	if floor {
+		return "<= " + pText(p)
+	}
+	return "= " + pText(p)
 }
 
 // unconfirmedWords says, for a verdict that keeps the unit root, that the
@@ -285,9 +297,13 @@ func (w *work) union(ctx context.Context, x []float64, variant string) (*unitRoo
 		out.stage.Evidence = append(out.stage.Evidence, "the bootstrap failed: "+err.Error())
 		return out, nil
 	}
+	out.pFloor = pTab < p && p <= 1/float64(1+unitRootDraws-failed)+1e-12
 	p = max(p, pTab)
 	out.stage.PValue = schema.F(p)
-	ev := fmt.Sprintf("union statistic R = %.3f exceeds its scaled critical value %.3f at T = %d; wild bootstrap under an I(1) null with %s: p = %s (%d draws)", R, lam, T, w.driftWords(null), pText(p), unitRootDraws)
+	ev := fmt.Sprintf("union statistic R = %.3f exceeds its scaled critical value %.3f at T = %d; wild bootstrap under an I(1) null with %s: p %s (%d draws)", R, lam, T, w.driftWords(null), pWithBound(p, out.pFloor), unitRootDraws)
+	if out.pFloor {
+		ev += ", none of which reached the statistic"
+	}
 	if failed > 0 {
 		ev += fmt.Sprintf("; %d draws failed and were left out", failed)
 	}
