@@ -78,7 +78,6 @@ func longLags(y []float64) bool { return diffAutocorr(y) <= maCut }
 // space; date does not allocate once the length has been seen.
 type trendBreak struct {
 	z    []float64
-	nrm  core.Normal
 	cols [][]float64
 	ls   core.LS
 	dw   core.DFWork
@@ -100,9 +99,12 @@ func breakRange(T int) (lo, hi int) {
 //	y_t = a + b t + c DU_t + d DT_t,  DU_t = 1(t > TB), DT_t = (t - TB)1(t > TB),
 //
 // over breakRange, from cross-products updated per candidate (suffix sums
-// of 1, s, s², z and s z with s = t/T and z the standardised series), each
-// solved by core.Normal; 0 when no candidate can be fitted. Its brute-force
-// twin (a core.LS fit per candidate) is in the tests.
+// of 1, s, s², z and s z with s = t/T and z the standardised series): by
+// Frisch-Waugh-Lovell, the fit of [1, s] is fixed and each candidate only
+// adds the 2x2 system of DU and DT residualised on it, so the SSR falls by
+// c'A⁻¹c with A and c from the sums in closed form. 0 when no candidate can
+// be fitted. Its brute-force twin (a core.LS fit per candidate) is in the
+// tests.
 func (b *trendBreak) date(y []float64) int {
 	T := len(y)
 	lo, hi := breakRange(T)
@@ -112,19 +114,26 @@ func (b *trendBreak) date(y []float64) int {
 	b.z, _, _ = core.Standardize(b.z, y)
 	z := b.z
 	fT := float64(T)
-	var Ss, Sss, Sz, Ssz, zz float64
+	var Ss, Sss, Sz, Ssz float64
 	for i, v := range z {
 		s := float64(i+1) / fT
 		Ss += s
 		Sss += s * s
 		Sz += v
 		Ssz += s * v
-		zz += v * v
 	}
-	m := &b.nrm
-	m.Size(4)
+	// G = ([1 s]'[1 s])⁻¹.
+	det0 := fT*Sss - Ss*Ss
+	if !(det0 > 0) {
+		return 0
+	}
+	g11, g12, g22 := Sss/det0, -Ss/det0, fT/det0
+	// quad returns u'Gv for u = (u1, u2), v = (v1, v2).
+	quad := func(u1, u2, v1, v2 float64) float64 {
+		return u1*(g11*v1+g12*v2) + u2*(g12*v1+g22*v2)
+	}
 	var N1, S1, S2, Y1, Y2 float64
-	best, bestSSR := 0, math.Inf(1)
+	best, bestRed := 0, math.Inf(-1)
 	for tb := T - 1; tb >= lo; tb-- {
 		// Observation t = tb+1 (index tb) joins the new regime.
 		s := float64(tb+1) / fT
@@ -137,19 +146,20 @@ func (b *trendBreak) date(y []float64) int {
 			continue
 		}
 		tau := float64(tb) / fT
-		A := m.A
-		A[0] = fT
-		A[4], A[5] = Ss, Sss
-		A[8], A[9], A[10] = N1, S1, N1
-		A[12], A[13], A[14], A[15] = S1-tau*N1, S2-tau*S1, S1-tau*N1, S2-2*tau*S1+tau*tau*N1
-		m.B[0], m.B[1], m.B[2], m.B[3] = Sz, Ssz, Y1, Y2-tau*Y1
-		m.YY, m.N = zz, T
-		ssr, err := m.Solve()
-		if err != nil {
+		// X0'DU = (N1, S1), X0'DT = (S1 - τN1, S2 - τS1), X0'z = (Sz, Ssz).
+		du1, du2 := N1, S1
+		dt1, dt2 := S1-tau*N1, S2-tau*S1
+		a11 := N1 - quad(du1, du2, du1, du2)
+		a12 := S1 - tau*N1 - quad(du1, du2, dt1, dt2)
+		a22 := S2 - 2*tau*S1 + tau*tau*N1 - quad(dt1, dt2, dt1, dt2)
+		c1 := Y1 - quad(du1, du2, Sz, Ssz)
+		c2 := Y2 - tau*Y1 - quad(dt1, dt2, Sz, Ssz)
+		d := a11*a22 - a12*a12
+		if !(d > 1e-12*a11*a22) {
 			continue
 		}
-		if ssr <= bestSSR {
-			best, bestSSR = tb, ssr
+		if red := (a22*c1*c1 - 2*a12*c1*c2 + a11*c2*c2) / d; red >= bestRed {
+			best, bestRed = tb, red
 		}
 	}
 	return best
