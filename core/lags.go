@@ -73,6 +73,7 @@ type DFWork struct {
 	xx   []float64 // X'X of the kmax design (m*m, lower triangle)
 	xy   []float64 // X'Δz
 	idx  []int
+	ssrs []float64 // SSR by number of leading regressors (selectNested)
 	crit []float64 // criterion by k from the last selection (tests)
 	// nearExact is set by the fast path when the fit at kmax leaves almost
 	// no residual (SSR below 1e-10 of the total): only the QR fit can tell
@@ -225,6 +226,64 @@ func (w *DFWork) plainSample(y []float64, det Trend, kmax int) bool {
 		}
 	}
 	return tss > 0 && !math.IsInf(tss, 0) && !math.IsInf(lss, 0)
+}
+
+// selectNested is the AIC/BIC part of selectLagsFast: with the columns in
+// the order [deterministic terms, y_{t-1}, Δy_{t-1}, ..., Δy_{t-kmax}] the
+// design at k lags is a leading block of the design at kmax, so one
+// Cholesky factorisation gives every order's SSR (Normal.NestedSSR)
+// instead of one factorisation per order. The criteria are those of the
+// loop in selectLagsFast.
+func (w *DFWork) selectNested(xx, xy []float64, yy float64, m, kmax, nd, n int, rule LagRule, logScale float64) (int, bool) {
+	idx := w.idx[:m]
+	for i := 0; i < nd; i++ {
+		idx[i] = kmax + 1 + i
+	}
+	for i := 0; i <= kmax; i++ {
+		idx[nd+i] = i
+	}
+	nm := &w.nm
+	nm.Reset(m)
+	for i, a := range idx {
+		nm.B[i] = xy[a]
+		for j := 0; j <= i; j++ {
+			b := idx[j]
+			if a >= b {
+				nm.A[i*m+j] = xx[a*m+b]
+			} else {
+				nm.A[i*m+j] = xx[b*m+a]
+			}
+		}
+	}
+	nm.YY, nm.N = yy, n
+	w.ssrs = grow(w.ssrs, m)
+	if err := nm.NestedSSR(w.ssrs); err != nil {
+		return 0, false
+	}
+	N := float64(n)
+	c := 2.0
+	if rule == LagBIC {
+		c = math.Log(N)
+	}
+	best, bestK := math.Inf(1), 0
+	for kk := 0; kk <= kmax; kk++ {
+		ssr := w.ssrs[nd+kk]
+		if !(ssr > 0) {
+			return 0, false
+		}
+		if kk == kmax && !(ssr > 1e-10*yy) {
+			w.nearExact = true
+		}
+		v := math.Log(ssr/N) + logScale + c*float64(kk)/N
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return 0, false
+		}
+		w.crit[kk] = v
+		if v < best {
+			best, bestK = v, kk
+		}
+	}
+	return bestK, true
 }
 
 // crossLagged fills w.xx (lower triangle) and w.xy with the cross-products
@@ -386,6 +445,9 @@ func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) 
 	N := float64(n)
 	logScale := 2 * math.Log(scale)
 	best, bestK := math.Inf(1), 0
+	if rule == LagAIC || rule == LagBIC {
+		return w.selectNested(xx, xy, yy, m, kmax, nd, n, rule, logScale)
+	}
 	for kk := 0; kk <= kmax; kk++ {
 		p := 1 + kk + nd
 		idx := w.idx[:p]

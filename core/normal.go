@@ -116,6 +116,48 @@ func (m *Normal) Solve() (ssr float64, err error) {
 	return ssr, nil
 }
 
+// NestedSSR fills out[p-1] with the sum of squared residuals of the fit on
+// the first p regressors, for p = 1..K, from one factorisation: the
+// Cholesky factor of a leading block of A is the leading block of A's
+// factor, so SSR_p = YY - Σ_{i<p} z_i² with z = L⁻¹Db the forward
+// substitution of the whole system (the same scaling, threshold and formula
+// as Solve, which computes SSR_K). It returns ErrSingular when the scaled
+// matrix is not numerically positive definite. It does not allocate once
+// K has been seen.
+func (m *Normal) NestedSSR(out []float64) error {
+	k := m.K
+	A, L, d := m.A, m.l, m.d
+	for i := 0; i < k; i++ {
+		a := A[i*k+i]
+		if !(a > 0) {
+			return ErrSingular
+		}
+		d[i] = 1 / math.Sqrt(a)
+	}
+	ssr := m.YY
+	z := m.z
+	for j := 0; j < k; j++ {
+		s := A[j*k+j]*d[j]*d[j] - dotRow(L, k, j, j, j)
+		if s <= 1e-12 {
+			return ErrSingular
+		}
+		ljj := math.Sqrt(s)
+		L[j*k+j] = ljj
+		for i := j + 1; i < k; i++ {
+			L[i*k+j] = (A[i*k+j]*d[i]*d[j] - dotRow(L, k, i, j, j)) / ljj
+		}
+		// Row j of L is complete: the forward substitution's z_j.
+		v := m.B[j] * d[j]
+		for l := 0; l < j; l++ {
+			v -= L[j*k+l] * z[l]
+		}
+		z[j] = v / ljj
+		ssr -= z[j] * z[j]
+		out[j] = max(ssr, 0)
+	}
+	return nil
+}
+
 // InvDiag returns (X'X)^-1_jj from the last successful Solve, so that the
 // standard error of Coef[j] is sqrt(ssr/(N-K) * InvDiag(j)). It does not allocate.
 func (m *Normal) InvDiag(j int) float64 {
