@@ -77,10 +77,9 @@ func longLags(y []float64) bool { return diffAutocorr(y) <= maCut }
 // squares and chooses the MAIC lag order around it. It keeps its scratch
 // space; date does not allocate once the length has been seen.
 type trendBreak struct {
-	z    []float64
-	cols [][]float64
-	ls   core.LS
-	dw   core.DFWork
+	z, res []float64
+	nrm    core.Normal
+	dw     core.DFWork
 }
 
 // trendBreakTrim is the trimming of the break date (that of Zivot-Andrews).
@@ -168,40 +167,67 @@ func (b *trendBreak) date(y []float64) int {
 // lagAt returns the lag order chosen by rule (core.SelectLags) for y
 // detrended by least squares on a constant, a trend and the level and
 // slope break at tb (no break when tb <= 0), with Schwert's maximum or kmax
-// when smaller (kmax >= 0); 0 when it cannot be computed.
+// when smaller (kmax >= 0); 0 when it cannot be computed. The detrending
+// runs on the standardised series (the lag criteria do not depend on the
+// scale) from its cross-products with s = t/T (core.Normal); its twin, a
+// core.LS fit of y itself, is in the tests.
 func (b *trendBreak) lagAt(y []float64, tb int, rule core.LagRule, kmax int) int {
 	T := len(y)
-	if len(b.cols) != 4 || len(b.cols[0]) != T {
-		b.cols = make([][]float64, 4)
-		for j := range b.cols {
-			b.cols[j] = make([]float64, T)
-		}
-	}
-	for i := range T {
-		t := float64(i + 1)
-		b.cols[0][i], b.cols[1][i], b.cols[2][i], b.cols[3][i] = 1, t, 0, 0
-		if tb > 0 && i+1 > tb {
-			b.cols[2][i], b.cols[3][i] = 1, t-float64(tb)
-		}
-	}
-	cols := b.cols
+	b.z, _, _ = core.Standardize(b.z, y)
+	z := b.z
+	q := 4
 	if tb <= 0 {
-		cols = cols[:2]
+		q = 2
 	}
-	f, err := b.ls.Fit(cols, y)
-	if err != nil {
+	fT := float64(T)
+	tau := float64(tb) / fT
+	m := &b.nrm
+	m.Reset(q)
+	var x [4]float64
+	for i, v := range z {
+		s := float64(i+1) / fT
+		x[0], x[1], x[2], x[3] = 1, s, 0, 0
+		if q == 4 && i+1 > tb {
+			x[2], x[3] = 1, s-tau
+		}
+		for r := 0; r < q; r++ {
+			m.B[r] += x[r] * v
+			for c := 0; c <= r; c++ {
+				m.A[r*q+c] += x[r] * x[c]
+			}
+		}
+		m.YY += v * v
+	}
+	m.N = T
+	if _, err := m.Solve(); err != nil {
 		return 0
+	}
+	b.res = grow(b.res, T)
+	for i, v := range z {
+		s := float64(i+1) / fT
+		f := m.Coef[0] + m.Coef[1]*s
+		if q == 4 && i+1 > tb {
+			f += m.Coef[2] + m.Coef[3]*(s-tau)
+		}
+		b.res[i] = v - f
 	}
 	var c core.Config
 	km := c.MaxLagsFor(T, 4)
 	if kmax >= 0 {
 		km = min(km, kmax)
 	}
-	k, err := b.dw.SelectLags(f.Resid, core.TrendNone, rule, km)
+	k, err := b.dw.SelectLags(b.res, core.TrendNone, rule, km)
 	if err != nil {
 		return 0
 	}
 	return k
+}
+
+func grow(s []float64, n int) []float64 {
+	if cap(s) < n {
+		return make([]float64, n)
+	}
+	return s[:n]
 }
 
 // zaMaxLags is the largest order of the Zivot-Andrews members in the

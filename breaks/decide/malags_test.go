@@ -184,3 +184,72 @@ func BenchmarkTrendBreakDate(b *testing.B) {
 		})
 	}
 }
+
+// bruteLagAt is the twin of trendBreak.lagAt: y itself detrended by a
+// Householder QR fit (core.LS), then core.SelectLags.
+func bruteLagAt(y []float64, tb int, rule core.LagRule, kmax int) int {
+	T := len(y)
+	cols := make([][]float64, 4)
+	for j := range cols {
+		cols[j] = make([]float64, T)
+	}
+	for i := range T {
+		t := float64(i + 1)
+		cols[0][i], cols[1][i] = 1, t
+		if tb > 0 && i+1 > tb {
+			cols[2][i], cols[3][i] = 1, t-float64(tb)
+		}
+	}
+	if tb <= 0 {
+		cols = cols[:2]
+	}
+	var ls core.LS
+	f, err := ls.Fit(cols, y)
+	if err != nil {
+		return 0
+	}
+	var c core.Config
+	km := c.MaxLagsFor(T, 4)
+	if kmax >= 0 {
+		km = min(km, kmax)
+	}
+	var dw core.DFWork
+	k, err := dw.SelectLags(f.Resid, core.TrendNone, rule, km)
+	if err != nil {
+		return 0
+	}
+	return k
+}
+
+func TestLagAtMatchesBrute(t *testing.T) {
+	var tb trendBreak
+	keys := []string{"rw", "rw-ma", "ar-shift5", "ts-turns"}
+	for _, key := range keys {
+		p, _ := ProcessByKey(key)
+		for b := range 25 {
+			T := 80 + 40*b
+			y := make([]float64, T)
+			p.Gen(y, rand.New(rand.NewPCG(606, uint64(b))))
+			for i := range y {
+				y[i] = 1e6 + 10*y[i] // far from zero: the fast path standardises
+			}
+			date := tb.date(y)
+			for _, c := range []struct {
+				rule core.LagRule
+				kmax int
+			}{{core.LagBIC, zaMaxLags}, {core.LagMAIC, -1}} {
+				for _, at := range []int{date, 0} {
+					if got, want := tb.lagAt(y, at, c.rule, c.kmax), bruteLagAt(y, at, c.rule, c.kmax); got != want {
+						t.Errorf("%s T=%d rule %v tb=%d: lag %d, QR twin %d", key, T, c.rule, at, got, want)
+					}
+				}
+			}
+		}
+	}
+	y := make([]float64, 300)
+	core.RandomWalk(y, rand.New(rand.NewPCG(1, 2)))
+	tb.lagAt(y, 150, core.LagBIC, zaMaxLags)
+	if a := testing.AllocsPerRun(10, func() { tb.lagAt(y, 150, core.LagBIC, zaMaxLags) }); a != 0 {
+		t.Errorf("lagAt allocates %v times per call", a)
+	}
+}
