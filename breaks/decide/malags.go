@@ -39,6 +39,7 @@ package decide
 
 import (
 	"math"
+	"slices"
 
 	"github.com/rootshift/rootshift/core"
 )
@@ -202,7 +203,7 @@ func (b *trendBreak) lagAt(y []float64, tb int, rule core.LagRule, kmax int) int
 	if _, err := m.Solve(); err != nil {
 		return 0
 	}
-	b.res = grow(b.res, T)
+	b.res = slices.Grow(b.res[:0], T)[:T]
 	for i, v := range z {
 		s := float64(i+1) / fT
 		f := m.Coef[0] + m.Coef[1]*s
@@ -221,13 +222,6 @@ func (b *trendBreak) lagAt(y []float64, tb int, rule core.LagRule, kmax int) int
 		return 0
 	}
 	return k
-}
-
-func grow(s []float64, n int) []float64 {
-	if cap(s) < n {
-		return make([]float64, n)
-	}
-	return s[:n]
 }
 
 // zaMaxLags is the largest order of the Zivot-Andrews members in the

@@ -253,3 +253,20 @@ func TestLagAtMatchesBrute(t *testing.T) {
 		t.Errorf("lagAt allocates %v times per call", a)
 	}
 }
+
+// The union statistic, computed once per bootstrap draw, does not allocate
+// once its branch's members have been prepared.
+func TestUnionRawNoAlloc(t *testing.T) {
+	const T = 200
+	u := newUnionCalc(T)
+	y := make([]float64, T)
+	core.RandomWalk(y, rand.New(rand.NewPCG(3, 4)))
+	for _, long := range []bool{false, true} {
+		if _, err := u.raw(y, long); err != nil {
+			t.Fatal(err)
+		}
+		if a := testing.AllocsPerRun(10, func() { _, _ = u.raw(y, long) }); a != 0 {
+			t.Errorf("long=%v: the union statistic allocates %v times per draw", long, a)
+		}
+	}
+}

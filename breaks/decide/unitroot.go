@@ -90,6 +90,7 @@ type unionCalc struct {
 	long  []core.StatFunc         // ADF members with MAIC
 	zaAt  map[int][]core.StatFunc // Zivot-Andrews members at a fixed order
 	tb    trendBreak
+	fs    []core.StatFunc // scratch: the members of the branch in use
 	err   error
 }
 
@@ -145,7 +146,10 @@ func (u *unionCalc) raw(y []float64, long bool) (float64, error) {
 	if long {
 		fs = u.long
 	}
-	fs = append(fs[:len(fs):len(fs)], u.za(u.tb.zaLag(y, long))...)
+	// The members of this branch in u.fs, reused: raw runs once per
+	// bootstrap draw and must not allocate.
+	u.fs = append(append(u.fs[:0], fs...), u.za(u.tb.zaLag(y, long))...)
+	fs = u.fs
 	if len(fs) != len(members) {
 		return 0, fmt.Errorf("union: %d of %d members prepared", len(fs), len(members))
 	}
