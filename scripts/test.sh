@@ -24,6 +24,11 @@ echo "== gofmt"
 unformatted=$(gofmt -l $(git ls-files '*.go' 2>/dev/null || find . -name '*.go'))
 if [ -n "$unformatted" ]; then echo "gofmt would change:"; echo "$unformatted"; exit 1; fi
 
+echo "== merge conflict markers"
+if git rev-parse --git-dir >/dev/null 2>&1 && git grep -n -E '^(<<<<<<<|>>>>>>>)( |$)|^=======$' -- . ':!*.svg'; then
+  echo "unresolved merge conflict markers (above)"; exit 1
+fi
+
 echo "== go vet"
 go vet ./...
 GOOS=js GOARCH=wasm go vet ./wasm/...
