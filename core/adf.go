@@ -201,7 +201,17 @@ func newADFStat(T int, cfg *Config) StatFunc {
 	c := *cfg
 	var w DFWork
 	return func(y []float64) (float64, error) {
-		f, _, _, err := adfFit(&w, y, &c)
+		// The lag order as the test chooses it, then the t-ratio from the
+		// cross-products (DFWork.TStatFast), or from the QR fit with its
+		// errors where the fast path cannot vouch for the sample.
+		k, _, _, err := dfLags(&w, y, c.Trend, &c, LagBIC)
+		if err != nil {
+			return 0, err
+		}
+		if t, ok := w.TStatFast(y, c.Trend, k); ok {
+			return t, nil
+		}
+		f, err := w.Regress(y, c.Trend, k, 0)
 		if err != nil {
 			return 0, err
 		}

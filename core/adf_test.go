@@ -155,10 +155,12 @@ func TestADFResultFields(t *testing.T) {
 	if _, ok := res.Estimates["rho"]; !ok {
 		t.Error("rho estimate missing")
 	}
-	// The statistic of the simulation hot path equals the full run.
+	// The statistic of the simulation hot path equals the full run up to
+	// rounding: it takes the t-ratio from cross-products (TStatFast), the
+	// run from the QR fit (lags_fast_test.go).
 	stat := newADFStat(len(y), &Config{Trend: TrendLinear, LagRule: LagAIC, MaxLags: 6})
 	v, err := stat(y)
-	if err != nil || v != *res.Statistic {
+	if err != nil || math.Abs(v-*res.Statistic) > 1e-10*math.Abs(*res.Statistic) {
 		t.Errorf("NewStat %g (%v), Run %g", v, err, *res.Statistic)
 	}
 	// Simulated p-values are attached when asked for.

@@ -72,6 +72,7 @@ type DFWork struct {
 	xr   []float64 // one row of the kmax design
 	xx   []float64 // X'X of the kmax design (m*m, lower triangle)
 	xy   []float64 // X'Δz
+	dz   []float64 // differences of z (crossLagged)
 	idx  []int
 	ssrs []float64 // SSR by number of leading regressors (selectNested)
 	crit []float64 // criterion by k from the last selection (tests)
@@ -286,14 +287,131 @@ func (w *DFWork) selectNested(xx, xy []float64, yy float64, m, kmax, nd, n int, 
 	return bestK, true
 }
 
+// scaleInto puts src, scaled to unit root mean square (and centred when
+// the design has nd > 0 deterministic terms), into w.z and returns the
+// scale; ok is false when the scale is zero or not finite.
+func (w *DFWork) scaleInto(src []float64, nd int) (scale float64, ok bool) {
+	T := len(src)
+	w.z = grow(w.z, T)
+	mean := 0.0
+	if nd > 0 {
+		for _, v := range src {
+			mean += v
+		}
+		mean /= float64(T)
+	}
+	ss := 0.0
+	for _, v := range src {
+		ss += (v - mean) * (v - mean)
+	}
+	scale = math.Sqrt(ss / float64(T))
+	if !(scale > 0) || math.IsInf(scale, 0) {
+		return 0, false
+	}
+	for i, v := range src {
+		w.z[i] = (v - mean) / scale
+	}
+	return scale, true
+}
+
+// minPivot bounds the Jacobi-scaled Cholesky pivots that TStatFast accepts:
+// a pivot is 1 - R² of a column on the columns before it, and the t-ratio
+// from the normal equations carries a relative error of about the unit
+// roundoff over the smallest pivot, so 1e-6 keeps it near 1e-10 (common
+// practice, no source: the usual loss of digits of the normal equations).
+const minPivot = 1e-6
+
+// TStatFast returns the Dickey-Fuller t-ratio of the regression with k
+// lags on its own sample t = k+2..T, as Regress(y, det, k, 0).TStat, from
+// the cross-products of the scaled (and, with a constant, centred) series
+// instead of a QR fit: the regressors are ordered [deterministic terms,
+// lagged differences, y_{t-1}] so that the last step of one Cholesky
+// factorisation gives it, t = z_p / σ with z = L⁻¹Db the forward
+// substitution and σ² = SSR/(n - p). ok is false, and the caller must fit
+// by QR, when the sample is too short, not finite, constant in its
+// differences, nearly exactly fitted or nearly collinear (a pivot below
+// minPivot): the cases where only the QR fit can answer, with its errors.
+// The statistic is invariant to the scaling, so it agrees with the QR fit
+// up to rounding (tests: lags_fast_test.go). It does not allocate once the
+// sizes have been seen.
+func (w *DFWork) TStatFast(y []float64, det Trend, k int) (t float64, ok bool) {
+	T := len(y)
+	nd := det.NumDet()
+	start := k + 2
+	n := T - start + 1
+	p := 1 + k + nd
+	if k < 0 || n <= p {
+		return 0, false
+	}
+	if _, ok := w.scaleInto(y, nd); !ok {
+		return 0, false
+	}
+	tbar := float64(start+T) / 2
+	tsd := math.Sqrt((float64(n)*float64(n) - 1) / 12)
+	if tsd == 0 {
+		tsd = 1
+	}
+	w.xx = grow(w.xx, p*p)
+	w.xy = grow(w.xy, p)
+	yy := w.crossLagged(w.z, T, k, nd, start, tbar, tsd)
+	if !(yy > 0) || math.IsInf(yy, 0) {
+		return 0, false
+	}
+	// Design column of each regressor in the order [det, lags, level].
+	if cap(w.idx) < p {
+		w.idx = make([]int, p)
+	}
+	idx := w.idx[:p]
+	for i := 0; i < nd; i++ {
+		idx[i] = k + 1 + i
+	}
+	for i := 1; i <= k; i++ {
+		idx[nd+i-1] = i
+	}
+	idx[p-1] = 0
+	xx, xy := w.xx, w.xy
+	nm := &w.nm
+	nm.Size(p)
+	for i, a := range idx {
+		nm.B[i] = xy[a]
+		for j := 0; j <= i; j++ {
+			b := idx[j]
+			if a >= b {
+				nm.A[i*p+j] = xx[a*p+b]
+			} else {
+				nm.A[i*p+j] = xx[b*p+a]
+			}
+		}
+	}
+	nm.YY, nm.N = yy, n
+	ssr, err := nm.Solve()
+	if err != nil || !(ssr > 1e-10*yy) {
+		return 0, false
+	}
+	for j := 0; j < p; j++ {
+		if l := nm.l[j*p+j]; !(l*l >= minPivot) {
+			return 0, false
+		}
+	}
+	t = nm.z[p-1] / math.Sqrt(ssr/float64(n-p))
+	if math.IsNaN(t) || math.IsInf(t, 0) {
+		return 0, false
+	}
+	return t, true
+}
+
 // crossLagged fills w.xx (lower triangle) and w.xy with the cross-products
 // of the Dickey-Fuller design at kmax lags over t = start..T, columns
 // [z_{t-1}, Δz_{t-1}, ..., Δz_{t-kmax}, (1), (trend)], against Δz_t, and
 // returns Σ Δz_t². The lagged-difference block is Toeplitz up to its ends:
 // G(i,j) = Σ_t Δz_{t-i} Δz_{t-j} equals G(i-1,j-1) plus the product that
-// enters at the start and minus the one that leaves at the end, so only its
-// first column is summed (O(n·kmax) instead of O(n·kmax²)); crossRowSweep,
-// the row-by-row sweep, is its brute-force twin in the tests.
+// enters at the start and minus the one that leaves at the end, so only
+// the lag products against Δz_t are summed (O(n·kmax) instead of
+// O(n·kmax²)), and G(i,1) follows from the product at lag i-1 the same
+// way. The sums of the lagged differences telescope (Σ_t Δz_{t-i} =
+// z_{T-i} - z_{start-1-i}), so one pass per lag accumulates three products
+// over the differences, computed once. crossRowSweep, the row-by-row sweep,
+// is its brute-force twin in the tests.
 func (w *DFWork) crossLagged(z []float64, T, kmax, nd, start int, tbar, tsd float64) float64 {
 	m := 1 + kmax + nd
 	xx, xy := w.xx[:m*m], w.xy[:m]
@@ -303,48 +421,68 @@ func (w *DFWork) crossLagged(z []float64, T, kmax, nd, start int, tbar, tsd floa
 	for i := range xy {
 		xy[i] = 0
 	}
-	// D(s) = Δz at 1-based time s: z[s-1] - z[s-2].
-	D := func(s int) float64 { return z[s-1] - z[s-2] }
+	// dz[j] = z[j] - z[j-1] (dz[0] unused): Δz at 1-based time s is dz[s-1].
+	w.dz = grow(w.dz, T)
+	dz := w.dz[:T]
+	dz[0] = 0
+	for j := 1; j < T; j++ {
+		dz[j] = z[j] - z[j-1]
+	}
+	D := func(s int) float64 { return dz[s-1] }
 	c, tr := kmax+1, kmax+2
-	var yy float64
-	for t := start; t <= T; t++ {
-		d, lev := D(t), z[t-2]
+	n := T - start + 1
+	// Rows t = start..T: Δz_t = dt[r], z_{t-2} = lev[r] (r = t - start).
+	dt := dz[start-1 : T]
+	lev := z[start-2 : T-1]
+	var yy, sl, ll, sd, sum float64
+	for r, d := range dt {
+		v := lev[r]
 		yy += d * d
-		xy[0] += lev * d
-		xx[0] += lev * lev
-		if nd >= 1 {
-			xy[c] += d
-			xx[c*m] += lev
-		}
-		if nd == 2 {
-			tau := (float64(t) - tbar) / tsd
-			xy[tr] += tau * d
-			xx[tr*m] += tau * lev
-			xx[tr*m+c] += tau
-			xx[tr*m+tr] += tau * tau
-		}
+		sl += v * d
+		ll += v * v
+		sum += v
+		sd += d
 	}
+	xy[0], xx[0] = sl, ll
 	if nd >= 1 {
-		xx[c*m+c] = float64(T - start + 1)
+		xy[c] = sd
+		xx[c*m] = sum
+		xx[c*m+c] = float64(n)
 	}
+	if nd == 2 {
+		var std, stl, stt, st float64
+		for r, d := range dt {
+			tau := (float64(start+r) - tbar) / tsd
+			std += tau * d
+			stl += tau * lev[r]
+			st += tau
+			stt += tau * tau
+		}
+		xy[tr], xx[tr*m], xx[tr*m+c], xx[tr*m+tr] = std, stl, st, stt
+	}
+	prev := yy // Σ_t Δz_{t-(i-1)} Δz_t at i-1
 	for i := 1; i <= kmax; i++ {
-		var sy, s0, s1, sc, st float64
-		for t := start; t <= T; t++ {
-			v := z[t-1-i] - z[t-2-i] // D(t-i)
-			sy += v * (z[t-1] - z[t-2])
-			s0 += v * z[t-2]
-			s1 += v * (z[t-2] - z[t-3])
-			sc += v
-			st += v * float64(t)
+		a := dz[start-1-i : T-i] // Δz_{t-i}
+		a = a[:len(dt)]
+		var sy, s0, st float64
+		for r, v := range a {
+			sy += v * dt[r]
+			s0 += v * lev[r]
+			st += v * float64(r)
 		}
 		xy[i] = sy
 		xx[i*m] = s0
-		xx[i*m+1] = s1 // G(i, 1)
+		// G(i,1) = Σ_t Δz_{t-i} Δz_{t-1}: the lag-(i-1) product over
+		// t-1 = start-1..T-1.
+		xx[i*m+1] = prev + D(start-i)*D(start-1) - D(T-i+1)*D(T)
+		prev = sy
+		sc := z[T-1-i] - z[start-2-i]
 		if nd >= 1 {
 			xx[c*m+i] = sc
 		}
 		if nd == 2 {
-			xx[tr*m+i] = (st - tbar*sc) / tsd
+			// Σ_t τ_t Δz_{t-i} with t = start + r.
+			xx[tr*m+i] = (st + (float64(start)-tbar)*sc) / tsd
 		}
 	}
 	for j := 2; j <= kmax; j++ {
@@ -406,25 +544,9 @@ func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) 
 	m := 1 + kmax + nd
 	start := kmax + 2
 	n := T - start + 1
-	// Scale (and centre when a constant is present).
-	w.z = grow(w.z, T)
-	mean := 0.0
-	if nd > 0 {
-		for _, v := range src {
-			mean += v
-		}
-		mean /= float64(T)
-	}
-	ss := 0.0
-	for _, v := range src {
-		ss += (v - mean) * (v - mean)
-	}
-	scale := math.Sqrt(ss / float64(T))
-	if !(scale > 0) || math.IsInf(scale, 0) {
+	scale, ok := w.scaleInto(src, nd)
+	if !ok {
 		return 0, false
-	}
-	for i, v := range src {
-		w.z[i] = (v - mean) / scale
 	}
 	z := w.z
 	// Centred, scaled trend over the sample rows.
