@@ -37,6 +37,7 @@ import (
 	"math"
 	"strings"
 
+	"github.com/rootshift/rootshift/breaks"
 	"github.com/rootshift/rootshift/core"
 	"github.com/rootshift/rootshift/core/schema"
 )
@@ -86,16 +87,15 @@ func memberConfig(m member, long bool, zaLag int) *core.Config {
 // own scratch space, in either branch.
 type unionCalc struct {
 	T     int
-	short []core.StatFunc         // ADF members with BIC (Zivot-Andrews: zaAt)
-	long  []core.StatFunc         // ADF members with MAIC
-	zaAt  map[int][]core.StatFunc // Zivot-Andrews members at a fixed order
+	short []core.StatFunc        // ADF members with BIC
+	long  []core.StatFunc        // ADF members with MAIC
+	zaAt  map[int]*breaks.ZAPair // both Zivot-Andrews members at a fixed order
 	tb    trendBreak
-	fs    []core.StatFunc // scratch: the members of the branch in use
 	err   error
 }
 
 func newUnionCalc(T int) *unionCalc {
-	u := &unionCalc{T: T, zaAt: map[int][]core.StatFunc{}}
+	u := &unionCalc{T: T, zaAt: map[int]*breaks.ZAPair{}}
 	for _, m := range members {
 		info, err := core.Lookup(m.id)
 		if err != nil {
@@ -112,32 +112,27 @@ func newUnionCalc(T int) *unionCalc {
 		c.NoPath = true
 		u.long = append(u.long, info.StatOf(T, c))
 	}
+	if len(u.short) != 2 || members[2].shift != core.ShiftLevel || members[3].shift != core.ShiftBoth {
+		u.err = fmt.Errorf("union: members are not ADF (constant, trend) and Zivot-Andrews (A, C)")
+	}
 	return u
 }
 
-// za returns the Zivot-Andrews members at fixed order k.
-func (u *unionCalc) za(k int) []core.StatFunc {
-	if fs, ok := u.zaAt[k]; ok {
-		return fs
+// za returns the Zivot-Andrews members at fixed order k (models A and C
+// from one preparation of the series; breaks.ZAPair gives the statistics
+// of the members' own configurations, memberConfig, bit for bit).
+func (u *unionCalc) za(k int) *breaks.ZAPair {
+	if p, ok := u.zaAt[k]; ok {
+		return p
 	}
-	var fs []core.StatFunc
-	for _, m := range members {
-		if m.id != "za" {
-			continue
-		}
-		info, err := core.Lookup(m.id)
-		if err != nil {
-			return nil
-		}
-		c := memberConfig(m, true, k)
-		c.NoPath = true
-		fs = append(fs, info.StatOf(u.T, c))
-	}
-	u.zaAt[k] = fs
-	return fs
+	c := memberConfig(members[2], false, k)
+	p := breaks.NewZAPair(u.T, k, c)
+	u.zaAt[k] = p
+	return p
 }
 
-// raw returns R = max_i τ_i / cv_i in the given branch.
+// raw returns R = max_i τ_i / cv_i in the given branch. It runs once per
+// bootstrap draw and does not allocate.
 func (u *unionCalc) raw(y []float64, long bool) (float64, error) {
 	if u.err != nil {
 		return 0, u.err
@@ -145,13 +140,6 @@ func (u *unionCalc) raw(y []float64, long bool) (float64, error) {
 	fs := u.short
 	if long {
 		fs = u.long
-	}
-	// The members of this branch in u.fs, reused: raw runs once per
-	// bootstrap draw and must not allocate.
-	u.fs = append(append(u.fs[:0], fs...), u.za(u.tb.zaLag(y, long))...)
-	fs = u.fs
-	if len(fs) != len(members) {
-		return 0, fmt.Errorf("union: %d of %d members prepared", len(fs), len(members))
 	}
 	r := math.Inf(-1)
 	for i, f := range fs {
@@ -161,7 +149,11 @@ func (u *unionCalc) raw(y []float64, long bool) (float64, error) {
 		}
 		r = max(r, s/members[i].cv)
 	}
-	return r, nil
+	tA, tC, err := u.za(u.tb.zaLag(y, long)).Stats(y)
+	if err != nil {
+		return 0, err
+	}
+	return max(r, tA/members[2].cv, tC/members[3].cv), nil
 }
 
 // scaled returns R divided by the 95% null quantile of its branch at T, the
