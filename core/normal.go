@@ -210,20 +210,39 @@ func Standardize(dst, y []float64) (out []float64, mean, sd float64) {
 	if big > 1e150 || (big > 0 && big < 1e-150) {
 		scale = big
 	}
-	for _, v := range y {
-		mean += v / scale
-	}
-	mean /= float64(n)
-	for _, v := range y {
-		d := v/scale - mean
-		sd += d * d
+	if scale == 1 {
+		// The same sums without the divisions by 1 (v/1 == v exactly),
+		// which cost as much as the rest of the loops.
+		for _, v := range y {
+			mean += v
+		}
+		mean /= float64(n)
+		for _, v := range y {
+			d := v - mean
+			sd += d * d
+		}
+	} else {
+		for _, v := range y {
+			mean += v / scale
+		}
+		mean /= float64(n)
+		for _, v := range y {
+			d := v/scale - mean
+			sd += d * d
+		}
 	}
 	sd = math.Sqrt(sd / float64(n))
 	if sd == 0 || math.IsNaN(sd) {
 		sd = 1
 	}
-	for i, v := range y {
-		dst[i] = (v/scale - mean) / sd
+	if scale == 1 {
+		for i, v := range y {
+			dst[i] = (v - mean) / sd
+		}
+	} else {
+		for i, v := range y {
+			dst[i] = (v/scale - mean) / sd
+		}
 	}
 	return dst, mean * scale, sd * scale
 }
