@@ -236,6 +236,17 @@ func (w *DFWork) plainSample(y []float64, det Trend, kmax int) bool {
 // instead of one factorisation per order. The criteria are those of the
 // loop in selectLagsFast.
 func (w *DFWork) selectNested(xx, xy []float64, yy float64, m, kmax, nd, n int, rule LagRule, logScale float64) (int, bool) {
+	return w.selectNestedIn(xx, xy, yy, m, m, kmax, nd, n, rule, logScale)
+}
+
+// selectNestedIn is selectNested reading X'X with row stride stride >= m:
+// the cross-products of a design with more deterministic columns (the
+// trend after the constant), of which this design's columns are a subset
+// (ADFPair).
+func (w *DFWork) selectNestedIn(xx, xy []float64, yy float64, stride, m, kmax, nd, n int, rule LagRule, logScale float64) (int, bool) {
+	if cap(w.idx) < m {
+		w.idx = make([]int, m)
+	}
 	idx := w.idx[:m]
 	for i := 0; i < nd; i++ {
 		idx[i] = kmax + 1 + i
@@ -250,9 +261,9 @@ func (w *DFWork) selectNested(xx, xy []float64, yy float64, m, kmax, nd, n int, 
 		for j := 0; j <= i; j++ {
 			b := idx[j]
 			if a >= b {
-				nm.A[i*m+j] = xx[a*m+b]
+				nm.A[i*m+j] = xx[a*stride+b]
 			} else {
-				nm.A[i*m+j] = xx[b*m+a]
+				nm.A[i*m+j] = xx[b*stride+a]
 			}
 		}
 	}
@@ -308,8 +319,9 @@ func (w *DFWork) scaleInto(src []float64, nd int) (scale float64, ok bool) {
 	if !(scale > 0) || math.IsInf(scale, 0) {
 		return 0, false
 	}
+	inv := 1 / scale
 	for i, v := range src {
-		w.z[i] = (v - mean) / scale
+		w.z[i] = (v - mean) * inv
 	}
 	return scale, true
 }
@@ -335,29 +347,46 @@ const minPivot = 1e-6
 // up to rounding (tests: lags_fast_test.go). It does not allocate once the
 // sizes have been seen.
 func (w *DFWork) TStatFast(y []float64, det Trend, k int) (t float64, ok bool) {
-	T := len(y)
 	nd := det.NumDet()
-	start := k + 2
-	n := T - start + 1
-	p := 1 + k + nd
-	if k < 0 || n <= p {
+	if k < 0 || len(y)-k-1 <= 1+k+nd {
 		return 0, false
 	}
 	if _, ok := w.scaleInto(y, nd); !ok {
 		return 0, false
 	}
+	yy, n, ok := w.crossAt(len(y), k, nd)
+	if !ok {
+		return 0, false
+	}
+	return w.tSolve(1+k+nd, k, nd, yy, n)
+}
+
+// crossAt fills w.xx, w.xy with the cross-products of the k-lag design with
+// nd deterministic terms on its own sample t = k+2..T from the scaled
+// series in w.z, and returns Σ Δz_t² and the number of observations.
+func (w *DFWork) crossAt(T, k, nd int) (yy float64, n int, ok bool) {
+	start := k + 2
+	n = T - start + 1
+	m := 1 + k + nd
 	tbar := float64(start+T) / 2
 	tsd := math.Sqrt((float64(n)*float64(n) - 1) / 12)
 	if tsd == 0 {
 		tsd = 1
 	}
-	w.xx = grow(w.xx, p*p)
-	w.xy = grow(w.xy, p)
-	yy := w.crossLagged(w.z, T, k, nd, start, tbar, tsd)
-	if !(yy > 0) || math.IsInf(yy, 0) {
-		return 0, false
-	}
-	// Design column of each regressor in the order [det, lags, level].
+	w.xx = grow(w.xx, m*m)
+	w.xy = grow(w.xy, m)
+	yy = w.crossLagged(w.z, T, k, nd, start, tbar, tsd)
+	return yy, n, yy > 0 && !math.IsInf(yy, 0)
+}
+
+// tSolve returns the t-ratio of y_{t-1} in the k-lag design with nd
+// deterministic terms from the cross-products in w.xx (row stride stride,
+// a design with at least nd deterministic columns after the lags) and
+// w.xy: the regressors in the order [deterministic terms, lagged
+// differences, y_{t-1}], one Cholesky factorisation, t = z_p / σ. See
+// TStatFast for when ok is false.
+func (w *DFWork) tSolve(stride, k, nd int, yy float64, n int) (t float64, ok bool) {
+	p := 1 + k + nd
 	if cap(w.idx) < p {
 		w.idx = make([]int, p)
 	}
@@ -377,9 +406,9 @@ func (w *DFWork) TStatFast(y []float64, det Trend, k int) (t float64, ok bool) {
 		for j := 0; j <= i; j++ {
 			b := idx[j]
 			if a >= b {
-				nm.A[i*p+j] = xx[a*p+b]
+				nm.A[i*p+j] = xx[a*stride+b]
 			} else {
-				nm.A[i*p+j] = xx[b*p+a]
+				nm.A[i*p+j] = xx[b*stride+a]
 			}
 		}
 	}
@@ -451,8 +480,9 @@ func (w *DFWork) crossLagged(z []float64, T, kmax, nd, start int, tbar, tsd floa
 	}
 	if nd == 2 {
 		var std, stl, stt, st float64
+		inv := 1 / tsd
 		for r, d := range dt {
-			tau := (float64(start+r) - tbar) / tsd
+			tau := (float64(start+r) - tbar) * inv
 			std += tau * d
 			stl += tau * lev[r]
 			st += tau

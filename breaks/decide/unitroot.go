@@ -87,34 +87,26 @@ func memberConfig(m member, long bool, zaLag int) *core.Config {
 // own scratch space, in either branch.
 type unionCalc struct {
 	T     int
-	short []core.StatFunc        // ADF members with BIC
-	long  []core.StatFunc        // ADF members with MAIC
+	short *core.ADFPair          // ADF members with BIC
+	long  *core.ADFPair          // ADF members with MAIC
 	zaAt  map[int]*breaks.ZAPair // both Zivot-Andrews members at a fixed order
 	tb    trendBreak
 	err   error
 }
 
+// newUnionCalc prepares the members for series of length T: the two ADF
+// members as one core.ADFPair per branch and the Zivot-Andrews members as
+// one breaks.ZAPair per order, each equal bit for bit to its members' own
+// statistic functions (memberConfig).
 func newUnionCalc(T int) *unionCalc {
 	u := &unionCalc{T: T, zaAt: map[int]*breaks.ZAPair{}}
-	for _, m := range members {
-		info, err := core.Lookup(m.id)
-		if err != nil {
-			u.err = err
-			return u
-		}
-		if m.id != "adf" {
-			continue
-		}
-		c := memberConfig(m, false, 0)
-		c.NoPath = true
-		u.short = append(u.short, info.StatOf(T, c))
-		c = memberConfig(m, true, 0)
-		c.NoPath = true
-		u.long = append(u.long, info.StatOf(T, c))
-	}
-	if len(u.short) != 2 || members[2].shift != core.ShiftLevel || members[3].shift != core.ShiftBoth {
+	if members[0].trend != core.TrendConstant || members[1].trend != core.TrendLinear ||
+		members[2].shift != core.ShiftLevel || members[3].shift != core.ShiftBoth {
 		u.err = fmt.Errorf("union: members are not ADF (constant, trend) and Zivot-Andrews (A, C)")
+		return u
 	}
+	u.short = core.NewADFPair(T, memberConfig(members[0], false, 0))
+	u.long = core.NewADFPair(T, memberConfig(members[0], true, 0))
 	return u
 }
 
@@ -137,18 +129,15 @@ func (u *unionCalc) raw(y []float64, long bool) (float64, error) {
 	if u.err != nil {
 		return 0, u.err
 	}
-	fs := u.short
+	adf := u.short
 	if long {
-		fs = u.long
+		adf = u.long
 	}
-	r := math.Inf(-1)
-	for i, f := range fs {
-		s, err := f(y)
-		if err != nil {
-			return 0, err
-		}
-		r = max(r, s/members[i].cv)
+	tc, tct, err := adf.Stats(y)
+	if err != nil {
+		return 0, err
 	}
+	r := max(tc/members[0].cv, tct/members[1].cv)
 	tA, tC, err := u.za(u.tb.zaLag(y, long)).Stats(y)
 	if err != nil {
 		return 0, err
