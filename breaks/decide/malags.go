@@ -108,10 +108,10 @@ func breakRange(T int) (lo, hi int) {
 func (b *trendBreak) date(y []float64) int {
 	T := len(y)
 	lo, hi := breakRange(T)
+	b.z, _, _ = core.Standardize(b.z, y)
 	if lo > hi {
 		return 0
 	}
-	b.z, _, _ = core.Standardize(b.z, y)
 	z := b.z
 	fT := float64(T)
 	var Ss, Sss, Sz, Ssz float64
@@ -173,44 +173,80 @@ func (b *trendBreak) date(y []float64) int {
 // scale) from its cross-products with s = t/T (core.Normal); its twin, a
 // core.LS fit of y itself, is in the tests.
 func (b *trendBreak) lagAt(y []float64, tb int, rule core.LagRule, kmax int) int {
-	T := len(y)
 	b.z, _, _ = core.Standardize(b.z, y)
+	return b.lagAtZ(tb, rule, kmax)
+}
+
+// lagAtZ is lagAt on the standardised series already in b.z (date leaves
+// it there). The cross-products of [1, s, DU, DT] and z are sums over the
+// whole sample and over the new regime, straight-line loops.
+func (b *trendBreak) lagAtZ(tb int, rule core.LagRule, kmax int) int {
 	z := b.z
-	q := 4
-	if tb <= 0 {
-		q = 2
-	}
+	T := len(z)
 	fT := float64(T)
 	tau := float64(tb) / fT
-	m := &b.nrm
-	m.Reset(q)
-	var x [4]float64
-	for i, v := range z {
-		s := float64(i+1) / fT
-		x[0], x[1], x[2], x[3] = 1, s, 0, 0
-		if q == 4 && i+1 > tb {
-			x[2], x[3] = 1, s-tau
-		}
-		for r := 0; r < q; r++ {
-			m.B[r] += x[r] * v
-			for c := 0; c <= r; c++ {
-				m.A[r*q+c] += x[r] * x[c]
-			}
-		}
-		m.YY += v * v
+	q := 4
+	if tb <= 0 || tb >= T {
+		// No break: every observation is in the one regime.
+		q, tb = 2, T
 	}
-	m.N = T
+	var Ss, Sss, Sz, Ssz float64
+	var N1, S1, Sd, Ssd, Sdd, Y1, Yd float64
+	for i, v := range z[:tb] {
+		s := float64(i+1) / fT
+		Ss += s
+		Sss += s * s
+		Sz += v
+		Ssz += s * v
+	}
+	if q == 4 {
+		for i, v := range z[tb:] {
+			s := float64(tb+i+1) / fT
+			d := s - tau
+			Ss += s
+			Sss += s * s
+			Sz += v
+			Ssz += s * v
+			N1++
+			S1 += s
+			Sd += d
+			Ssd += s * d
+			Sdd += d * d
+			Y1 += v
+			Yd += d * v
+		}
+	}
+	m := &b.nrm
+	m.Size(q) // every entry Solve reads is set below
+	m.A[0] = fT
+	m.A[q] = Ss
+	m.A[q+1] = Sss
+	m.B[0], m.B[1] = Sz, Ssz
+	if q == 4 {
+		m.A[8], m.A[9], m.A[10] = N1, S1, N1
+		m.A[12], m.A[13], m.A[14], m.A[15] = Sd, Ssd, Sd, Sdd
+		m.B[2], m.B[3] = Y1, Yd
+	}
+	var yy float64
+	for _, v := range z {
+		yy += v * v
+	}
+	m.YY, m.N = yy, T
 	if _, err := m.Solve(); err != nil {
 		return 0
 	}
 	b.res = slices.Grow(b.res[:0], T)[:T]
-	for i, v := range z {
+	c0, c1 := m.Coef[0], m.Coef[1]
+	for i, v := range z[:tb] {
 		s := float64(i+1) / fT
-		f := m.Coef[0] + m.Coef[1]*s
-		if q == 4 && i+1 > tb {
-			f += m.Coef[2] + m.Coef[3]*(s-tau)
+		b.res[i] = v - (c0 + c1*s)
+	}
+	if q == 4 {
+		c2, c3 := m.Coef[2], m.Coef[3]
+		for i, v := range z[tb:] {
+			s := float64(tb+i+1) / fT
+			b.res[tb+i] = v - (c0 + c1*s + c2 + c3*(s-tau))
 		}
-		b.res[i] = v - f
 	}
 	var c core.Config
 	km := c.MaxLagsFor(T, 4)
@@ -233,9 +269,9 @@ const zaMaxLags = 8
 // most zaMaxLags) in the short-lag branch, each on the series detrended at
 // the least-squares broken-trend date.
 func (b *trendBreak) zaLag(y []float64, long bool) int {
-	tb := b.date(y)
+	tb := b.date(y) // leaves the standardised series in b.z
 	if long {
-		return b.lagAt(y, tb, core.LagMAIC, -1)
+		return b.lagAtZ(tb, core.LagMAIC, -1)
 	}
-	return b.lagAt(y, tb, core.LagBIC, zaMaxLags)
+	return b.lagAtZ(tb, core.LagBIC, zaMaxLags)
 }
