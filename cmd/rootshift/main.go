@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"os/signal"
+	"runtime/pprof"
 	"strings"
 	"syscall"
 
@@ -14,7 +15,31 @@ import (
 )
 
 func main() {
-	os.Exit(run(signalContext(), os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+	stop := cpuProfile(os.Getenv("ROOTSHIFT_CPUPROFILE"), os.Stderr)
+	code := run(signalContext(), os.Args[1:], os.Stdin, os.Stdout, os.Stderr)
+	stop()
+	os.Exit(code)
+}
+
+// cpuProfile starts a CPU profile into path (for developers: the
+// environment variable ROOTSHIFT_CPUPROFILE, see DEVELOPERS.md) and
+// returns the function that ends it; with an empty path it does nothing.
+func cpuProfile(path string, stderr io.Writer) func() {
+	if path == "" {
+		return func() {}
+	}
+	f, err := os.Create(path)
+	if err == nil {
+		err = pprof.StartCPUProfile(f)
+	}
+	if err != nil {
+		fmt.Fprintf(stderr, "rootshift: ROOTSHIFT_CPUPROFILE: %v\n", err)
+		return func() {}
+	}
+	return func() {
+		pprof.StopCPUProfile()
+		f.Close()
+	}
 }
 
 // signalContext is cancelled by SIGINT or SIGTERM, with the signal as its
