@@ -138,6 +138,8 @@ func (b *svgBuilder) acfPanel(x []float64, lags int, name string, y float64) {
 		yb := f.Y(v)
 		b.line(f.left, yb, f.left+f.width, yb, colBand, ` stroke-dasharray="5,3"`)
 	}
-	b.text(f.left+f.width-4, f.Y(band)-3, "end", colBand, "±1.96/√T", "")
+	// The band's key sits on the panel's title line, right-aligned: inside
+	// the plot it would overlap the bars of a slowly decaying ACF.
+	b.text(f.left+f.width, y+12, "end", colBand, "dashed: ±1.96/√T", "")
 	b.text(f.left+f.width/2, f.top+f.height+2*fontBase+4, "middle", colText, "lag", "")
 }
