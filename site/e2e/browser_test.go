@@ -446,6 +446,13 @@ func TestPageInBrowser(t *testing.T) {
 			t.Errorf("preview lacks %q:\n%s", want, ui.Preview)
 		}
 	}
+	// The explosive stage tests at 2.5% (decide/explosive.go): the results
+	// table states that level, not a rounded 3%.
+	var first string
+	b.eval(t, `JSON.stringify(document.querySelector('#results article table').innerText)`, &first)
+	if !strings.Contains(first, "H0 at 2.5%") || strings.Contains(first, "at 3%") {
+		t.Errorf("the first series' results table does not state the explosive stage's level 2.5%%:\n%s", first)
+	}
 
 	// Screenshots at desktop and phone sizes.
 	dir := artifactsDir(t)

@@ -654,7 +654,8 @@
   }
 
   function decisionText(r) {
-    const lv = r.level ? Math.round(r.level * 100) + '%' : '';
+    // One decimal where the level has one (the explosive stage's 2.5%).
+    const lv = r.level ? Math.round(r.level * 1000) / 10 + '%' : '';
     return (r.reject ? 'rejects H0' : 'does not reject H0') + ' at ' + lv;
   }
 
