@@ -13,10 +13,10 @@ import "github.com/rootshift/rootshift/core"
 // A ZAPair is not safe for concurrent use; after the first series it does
 // not allocate.
 type ZAPair struct {
-	T      int
-	a, c   Spec
-	w      Searcher
-	errSet error
+	T          int
+	a, c       Spec
+	w          Searcher
+	errA, errC error // settings errors of each model's search
 }
 
 // NewZAPair prepares the pair for series of length T at k lags with the
@@ -30,12 +30,9 @@ func NewZAPair(T, k int, cfg *core.Config) *ZAPair {
 	}
 	c.LagRule, c.Lags = core.LagFixed, k
 	c.Shift = core.ShiftLevel
-	p.a, p.errSet = ioSpec("za", &c, T, false)
-	if p.errSet != nil {
-		return p
-	}
+	p.a, p.errA = ioSpec("za", &c, T, false)
 	c.Shift = core.ShiftBoth
-	p.c, p.errSet = ioSpec("za", &c, T, false)
+	p.c, p.errC = ioSpec("za", &c, T, false)
 	for _, s := range []*Spec{&p.a, &p.c} {
 		s.Rule = MinTAlpha
 		s.OnlyTAlpha = true
@@ -44,11 +41,12 @@ func NewZAPair(T, k int, cfg *core.Config) *ZAPair {
 }
 
 // Stats returns the Zivot-Andrews t-ratios of model A and model C of y,
-// with the errors of the za statistic function.
+// with the error the za statistic function of model A gives, else that of
+// model C (the checks in the same order).
 func (p *ZAPair) Stats(y []float64) (tA, tC float64, err error) {
 	const id = "za"
-	if p.errSet != nil {
-		return 0, 0, p.errSet
+	if p.errA != nil {
+		return 0, 0, p.errA
 	}
 	if len(y) != p.T {
 		return 0, 0, core.Errorf(id, core.ErrSettings, "series length %d, statistic prepared for %d", len(y), p.T)
@@ -60,6 +58,9 @@ func (p *ZAPair) Stats(y []float64) (tA, tC float64, err error) {
 	ca, _, err := p.w.search(&p.a, false)
 	if err != nil {
 		return 0, 0, WrapError(id, err)
+	}
+	if p.errC != nil {
+		return 0, 0, p.errC
 	}
 	cc, _, err := p.w.search(&p.c, false)
 	if err != nil {

@@ -115,3 +115,39 @@ func BenchmarkZAPair(b *testing.B) {
 		})
 	}
 }
+
+// FuzzZAPair feeds arbitrary series, orders and trimmings to the pair: it
+// must not panic, and it must give the two searches' statistics and errors.
+func FuzzZAPair(f *testing.F) {
+	f.Add([]byte{1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 20, 21, 22, 23, 24, 25, 26, 27, 28, 29, 30}, uint8(1), uint8(15))
+	f.Add([]byte{0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0}, uint8(0), uint8(10))
+	f.Add([]byte{9, 1, 8, 2, 7, 3, 6, 4, 5, 5, 4, 6, 3, 7, 2, 8, 1, 9, 0, 10, 200, 3, 5, 7}, uint8(3), uint8(30))
+	f.Fuzz(func(t *testing.T, b []byte, k, trim uint8) {
+		y := make([]float64, len(b))
+		s := 0.0
+		for i, v := range b {
+			s += float64(int(v)-128) / 16
+			y[i] = s
+		}
+		lags := int(k % 6)
+		cfg := &core.Config{Trim: float64(trim%50) / 100}
+		p := NewZAPair(len(y), lags, cfg)
+		tA, tC, err := p.Stats(y)
+		ca := *cfg
+		ca.Trend, ca.Shift, ca.LagRule, ca.Lags, ca.NoPath = core.TrendLinear, core.ShiftLevel, core.LagFixed, lags, true
+		cc := ca
+		cc.Shift = core.ShiftBoth
+		wA, errA := newZAStat(len(y), &ca)(y)
+		wC, errC := newZAStat(len(y), &cc)(y)
+		want := errA
+		if want == nil {
+			want = errC
+		}
+		if (err == nil) != (want == nil) || (err != nil && err.Error() != want.Error()) {
+			t.Fatalf("pair error %v, separate %v / %v", err, errA, errC)
+		}
+		if err == nil && (math.Float64bits(tA) != math.Float64bits(wA) || math.Float64bits(tC) != math.Float64bits(wC)) {
+			t.Fatalf("pair (%v, %v), separate (%v, %v)", tA, tC, wA, wC)
+		}
+	})
+}

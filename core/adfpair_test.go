@@ -84,3 +84,30 @@ func BenchmarkADFPair(b *testing.B) {
 		})
 	}
 }
+
+// FuzzADFPair feeds arbitrary series and settings to the pair: it must
+// not panic, and it must give the two statistic functions' values and
+// errors (the same error text, or both values equal bit for bit).
+func FuzzADFPair(f *testing.F) {
+	dfFuzzSeed(f)
+	f.Fuzz(func(t *testing.T, b []byte, rule, maxLags uint8) {
+		y := dfFuzzSeries(b)
+		cfg := &Config{LagRule: LagRule(rule % 6), Lags: int(rule % 4), MaxLags: int(maxLags%9) - 1}
+		p := NewADFPair(len(y), cfg)
+		c, ct := *cfg, *cfg
+		c.Trend, ct.Trend = TrendConstant, TrendLinear
+		a, bb, err := p.Stats(y)
+		wa, erra := newADFStat(len(y), &c)(y)
+		wb, errb := newADFStat(len(y), &ct)(y)
+		want := erra
+		if want == nil {
+			want = errb
+		}
+		if (err == nil) != (want == nil) || (err != nil && err.Error() != want.Error()) {
+			t.Fatalf("pair error %v, separate %v / %v", err, erra, errb)
+		}
+		if err == nil && (math.Float64bits(a) != math.Float64bits(wa) || math.Float64bits(bb) != math.Float64bits(wb)) {
+			t.Fatalf("pair (%v, %v), separate (%v, %v)", a, bb, wa, wb)
+		}
+	})
+}
