@@ -66,7 +66,10 @@ func (w *work) seasonality(ctx context.Context) (*seasonOut, error) {
 		out.dummies = true
 		out.stage.Decision = "deterministic seasonality"
 	default:
-		out.stage.Decision = "no seasonality"
+		// The statistic shown is the seasonal unit-root F test's, which
+		// rejected: say so, or its small p-value reads as a finding of
+		// seasonality.
+		out.stage.Decision = "no seasonality (seasonal unit roots rejected, no stable pattern)"
 	}
 	out.stage.Evidence = []string{rep.Reason}
 	return out, nil
