@@ -50,6 +50,9 @@ func TestZAPairEqualsSearches(t *testing.T) {
 		for _, T := range []int{60, 200, 500} {
 			for _, k := range []int{0, 1, 4, 8} {
 				p := NewZAPair(T, k, nil)
+				if !p.fused {
+					t.Fatalf("T=%d k=%d: the default pair does not take the fused candidate loop", T, k)
+				}
 				fa, fc := zaSeparate(T, k, core.ShiftLevel), zaSeparate(T, k, core.ShiftBoth)
 				for rep := range 3 {
 					y := pairSeries(kind, T, uint64(T*10+k*3+rep))
