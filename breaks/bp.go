@@ -454,39 +454,155 @@ func (w *bpWork) dp(h, M int) int {
 			o0[b] = math.Inf(1)
 		}
 	}
-	py, pyy, psy, invn, invss := w.py, w.pyy, w.psy, w.invn, w.invss
-	q2 := w.q == 2
-	Tf := float64(T)
-	c := 0.5 * float64(T+1)
+	// Only the cells that the statistics read are computed: opt[m][T]
+	// (the minimal SSR with m breaks, where every backtrack starts), and
+	// opt[m][b] for b <= T-h, the possible last breaks of level m+1. The
+	// cells T-h < b < T, and every b < T at the top level, stay +Inf with
+	// last break -1: no partition of 1..T passes through them.
 	for m := 1; m <= M; m++ {
 		prev, cur, arg := w.opt[m-1], w.opt[m], w.arg[m]
-		for b := 0; b < (m+1)*h && b <= T; b++ {
+		for b := range cur {
 			cur[b] = math.Inf(1)
 			arg[b] = -1
 		}
+		hi := T - h
+		if m == M {
+			hi = (m+1)*h - 1
+		}
 		for b := (m + 1) * h; b <= T; b++ {
-			best, bi := math.Inf(1), -1
-			pyb, pyyb, psyb := py[b], pyy[b], psy[b]
-			for p := m * h; p <= b-h; p++ {
-				n := b - p
-				sy := pyb - py[p]
-				r := (pyyb - pyy[p]) - sy*sy*invn[n]
-				if q2 {
-					ms := (0.5*float64(p+1+b) - c) / Tf
-					sc := (psyb - psy[p]) - ms*sy
-					r -= sc * sc * invss[n]
-				}
-				if r < 0 {
-					r = 0
-				}
-				if v := prev[p] + r; v < best {
-					best, bi = v, p
-				}
+			if b > hi && b < T {
+				continue
+			}
+			var best float64
+			var bi int
+			if w.q == 2 {
+				best, bi = w.dpMinTrend(prev, m*h, b-h, b)
+			} else {
+				best, bi = w.dpMinMean(prev, m*h, b-h, b)
 			}
 			cur[b], arg[b] = best, int32(bi)
 		}
 	}
 	return M
+}
+
+// dpMinMean and dpMinTrend return the minimum over p = lo..hi of
+// prev[p] + SSR(p, b) and the first p attaining it (-1 when none is below
+// +Inf): the inner loop of the dynamic programme, for the mean-shift model
+// (q = 1) and the trend model (q = 2). They are written for WebAssembly,
+// where Go compiles every taken branch to a jump through the function's
+// block dispatcher and keeps float compare-and-assign as a branch: one loop
+// per model (no test of q per candidate), two candidates per pass (half
+// the back edges), the clamp of a negative SSR to zero as a select on the
+// float's bits, and the running minimum as an unsigned comparison of the
+// bits, which is branch-free. The bits of non-negative floats (+0 up to
+// +Inf) order as the floats do, and every candidate is one: prev holds
+// sums of clamped SSRs or +Inf, and -0 cannot arise (a difference of equal
+// prefix sums is +0); a NaN candidate (bits above +Inf) is never taken,
+// as with a float comparison. The arithmetic and the order of the
+// comparisons are those of the plain loop, so the results are the same bit
+// for bit (TestBPDPMatchesReference).
+func (w *bpWork) dpMinMean(prev []float64, lo, hi, b int) (float64, int) {
+	n := hi - lo + 1
+	if n <= 0 {
+		return math.Inf(1), -1
+	}
+	pyb, pyyb := w.py[b], w.pyy[b]
+	py, pyy, pv := w.py[lo:lo+n], w.pyy[lo:lo+n], prev[lo:lo+n]
+	// inv[n-1-i] = 1/(b-lo-i), the segment length of candidate lo+i.
+	inv := w.invn[b-hi : b-lo+1]
+	best, bi := uint64(bpInfBits), -1
+	i := 0
+	for ; i+1 < len(py) && i+1 < len(pyy) && i+1 < len(pv) && i+1 < len(inv); i += 2 {
+		sy0 := pyb - py[i]
+		r0 := (pyyb - pyy[i]) - sy0*sy0*inv[len(inv)-1-i]
+		sy1 := pyb - py[i+1]
+		r1 := (pyyb - pyy[i+1]) - sy1*sy1*inv[len(inv)-2-i]
+		v0 := math.Float64bits(pv[i] + bpClamp0(r0))
+		v1 := math.Float64bits(pv[i+1] + bpClamp0(r1))
+		if v0 < best {
+			best, bi = v0, i
+		}
+		if v1 < best {
+			best, bi = v1, i+1
+		}
+	}
+	if i < n {
+		sy := pyb - py[i]
+		r := (pyyb - pyy[i]) - sy*sy*inv[len(inv)-1-i]
+		if v := math.Float64bits(pv[i] + bpClamp0(r)); v < best {
+			best, bi = v, i
+		}
+	}
+	if bi >= 0 {
+		bi += lo
+	}
+	return math.Float64frombits(best), bi
+}
+
+func (w *bpWork) dpMinTrend(prev []float64, lo, hi, b int) (float64, int) {
+	n := hi - lo + 1
+	if n <= 0 {
+		return math.Inf(1), -1
+	}
+	pyb, pyyb, psyb := w.py[b], w.pyy[b], w.psy[b]
+	py, pyy, psy, pv := w.py[lo:lo+n], w.pyy[lo:lo+n], w.psy[lo:lo+n], prev[lo:lo+n]
+	inv, invs := w.invn[b-hi:b-lo+1], w.invss[b-hi:b-lo+1]
+	Tf := float64(w.T)
+	c := 0.5 * float64(w.T+1)
+	best, bi := uint64(bpInfBits), -1
+	i := 0
+	for ; i+1 < len(py) && i+1 < len(pyy) && i+1 < len(psy) && i+1 < len(pv) && i+1 < len(inv) && len(invs) == len(inv); i += 2 {
+		p := lo + i
+		j0, j1 := len(inv)-1-i, len(inv)-2-i
+		sy0 := pyb - py[i]
+		r0 := (pyyb - pyy[i]) - sy0*sy0*inv[j0]
+		ms0 := (0.5*float64(p+1+b) - c) / Tf
+		sc0 := (psyb - psy[i]) - ms0*sy0
+		r0 -= sc0 * sc0 * invs[j0]
+		sy1 := pyb - py[i+1]
+		r1 := (pyyb - pyy[i+1]) - sy1*sy1*inv[j1]
+		ms1 := (0.5*float64(p+2+b) - c) / Tf
+		sc1 := (psyb - psy[i+1]) - ms1*sy1
+		r1 -= sc1 * sc1 * invs[j1]
+		v0 := math.Float64bits(pv[i] + bpClamp0(r0))
+		v1 := math.Float64bits(pv[i+1] + bpClamp0(r1))
+		if v0 < best {
+			best, bi = v0, i
+		}
+		if v1 < best {
+			best, bi = v1, i+1
+		}
+	}
+	if i < n {
+		p := lo + i
+		j := len(inv) - 1 - i
+		sy := pyb - py[i]
+		r := (pyyb - pyy[i]) - sy*sy*inv[j]
+		ms := (0.5*float64(p+1+b) - c) / Tf
+		sc := (psyb - psy[i]) - ms*sy
+		r -= sc * sc * invs[j]
+		if v := math.Float64bits(pv[i] + bpClamp0(r)); v < best {
+			best, bi = v, i
+		}
+	}
+	if bi >= 0 {
+		bi += lo
+	}
+	return math.Float64frombits(best), bi
+}
+
+// bpInfBits is the bit pattern of +Inf.
+const bpInfBits = 0x7FF0000000000000
+
+// bpClamp0 returns r, or +0 when r < 0 (as if r < 0 { r = 0 }), without a
+// float branch.
+func bpClamp0(r float64) float64 {
+	u := math.Float64bits(r)
+	if r < 0 {
+		u = 0
+	}
+	return math.Float64frombits(u)
 }
 
 // dates writes the m break dates of the global optimum over 1..T into dst.
