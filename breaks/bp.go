@@ -334,8 +334,7 @@ type bpWork struct {
 	h   int
 	// Scratch for the Wald statistics.
 	res  []float64
-	v    [][2]float64
-	e    [][2]float64
+	e    []float64
 	segs []bpSeg
 	mat  []float64
 	vec  []float64
@@ -739,29 +738,30 @@ func (w *bpWork) fitSegments(bounds []int) {
 	w.segs = w.segs[:k1]
 	T := w.T
 	w.res = bpGrow(w.res, T)
-	if cap(w.v) < T {
-		w.v = make([][2]float64, T)
-		w.e = make([][2]float64, T)
-	}
-	w.v, w.e = w.v[:T], w.e[:T]
+	w.e = bpGrow(w.e, T)
 	ssrTot := 0.0
 	for j := 0; j < k1; j++ {
 		s := &w.segs[j]
 		s.lo, s.hi = bounds[j], bounds[j+1]
 		c0, c1 := w.segFit(s.lo, s.hi)
 		s.d = [2]float64{c0, c1}
-		s.zz = [2][2]float64{}
-		for i := s.lo; i < s.hi; i++ {
-			tau := w.tau(i + 1)
-			u := w.ys[i] - c0 - c1*tau
-			w.res[i] = u
+		// The sums in locals (the same additions in the same order as
+		// into s.zz): stores through s in the loop cost a memory round
+		// trip per observation, more so under WebAssembly.
+		var z00, z01, z11 float64
+		ys, res := w.ys[s.lo:s.hi], w.res[s.lo:s.hi]
+		for i, y := range ys {
+			tau := w.tau(s.lo + i + 1)
+			u := y - c0 - c1*tau
+			if i < len(res) {
+				res[i] = u
+			}
 			ssrTot += u * u
-			w.v[i] = [2]float64{u, tau * u}
-			s.zz[0][0]++
-			s.zz[0][1] += tau
-			s.zz[1][1] += tau * tau
+			z00++
+			z01 += tau
+			z11 += tau * tau
 		}
-		s.zz[1][0] = s.zz[0][1]
+		s.zz = [2][2]float64{{z00, z01}, {z01, z11}}
 	}
 	lo, hi := bounds[0], bounds[k1]
 	n := hi - lo
@@ -818,12 +818,12 @@ func (w *bpWork) fitSegments(bounds []int) {
 	}
 	e := w.e
 	for _, s := range w.segs {
-		for i := s.lo + first; i < s.hi; i++ {
-			if prewhiten {
-				e[i][0] = w.res[i] - rho*w.res[i-1]
-			} else {
-				e[i][0] = w.res[i]
+		if prewhiten {
+			for i := s.lo + 1; i < s.hi; i++ {
+				e[i] = w.res[i] - rho*w.res[i-1]
 			}
+		} else {
+			copy(e[s.lo:s.hi], w.res[s.lo:s.hi])
 		}
 	}
 	// Step 2: bandwidth.
@@ -833,9 +833,9 @@ func (w *bpWork) fitSegments(bounds []int) {
 		cnt := 0
 		for _, s := range w.segs {
 			for i := s.lo + first + 1; i < s.hi; i++ {
-				sxy += e[i][0] * e[i-1][0]
-				sxx += e[i-1][0] * e[i-1][0]
-				syy += e[i][0] * e[i][0]
+				sxy += e[i] * e[i-1]
+				sxx += e[i-1] * e[i-1]
+				syy += e[i] * e[i]
 				cnt++
 			}
 		}
@@ -887,7 +887,7 @@ func (w *bpWork) fitSegments(bounds []int) {
 				}
 				g := 0.0
 				for t := start + i; t < s.hi; t++ {
-					g += e[t][0] * e[t-i][0]
+					g += e[t] * e[t-i]
 				}
 				if i == 0 {
 					om += g
