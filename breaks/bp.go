@@ -325,8 +325,12 @@ type bpWork struct {
 	ys   []float64
 	// Prefix sums over t = 1..i at index i: y, y², τy.
 	py, pyy, psy []float64
-	// Per segment length n: 1/n and T²·12/(n(n²-1)) = 1/Σ(τ-τ̄)².
+	// Per segment length n: 1/n and T²·12/(n(n²-1)) = 1/Σ(τ-τ̄)²; taus[i]
+	// is τ_{i+1}. They depend on T only and are kept while T is tabT
+	// (replications of one simulation share them).
 	invn, invss []float64
+	taus        []float64
+	tabT        int
 	// Dynamic programme: opt[m][b] is the minimal SSR of observations 1..b
 	// with m breaks, arg[m][b] the last break of that partition.
 	opt [][]float64
@@ -363,18 +367,28 @@ func (w *bpWork) load(y []float64, q int) {
 	w.py = bpGrow(w.py, T+1)
 	w.pyy = bpGrow(w.pyy, T+1)
 	w.psy = bpGrow(w.psy, T+1)
-	w.invn = bpGrow(w.invn, T+1)
-	w.invss = bpGrow(w.invss, T+1)
-	c := 0.5 * float64(T+1)
-	Tf := float64(T)
+	w.tables(T)
 	var sy, syy, ssy float64
-	for i, v := range w.ys {
-		tau := (float64(i+1) - c) / Tf
+	ys, taus, py, pyy, psy := w.ys[:T], w.taus[:T], w.py[1:T+1], w.pyy[1:T+1], w.psy[1:T+1]
+	for i, v := range ys {
+		tau := taus[i] // (float64(i+1) - 0.5*float64(T+1)) / float64(T)
 		sy += v
 		syy += v * v
 		ssy += tau * v
-		w.py[i+1], w.pyy[i+1], w.psy[i+1] = sy, syy, ssy
+		py[i], pyy[i], psy[i] = sy, syy, ssy
 	}
+}
+
+// tables fills invn, invss and taus for length T unless they are already
+// those of T.
+func (w *bpWork) tables(T int) {
+	if w.tabT == T && len(w.invn) == T+1 && len(w.invss) == T+1 && len(w.taus) == T {
+		return
+	}
+	Tf := float64(T)
+	w.invn = bpGrow(w.invn, T+1)
+	w.invss = bpGrow(w.invss, T+1)
+	w.taus = bpGrow(w.taus, T)
 	w.invn[0], w.invss[0] = 0, 0
 	for n := 1; n <= T; n++ {
 		nf := float64(n)
@@ -385,11 +399,10 @@ func (w *bpWork) load(y []float64, q int) {
 			w.invss[n] = 0
 		}
 	}
-}
-
-// tau returns τ_t for 1-based t.
-func (w *bpWork) tau(t int) float64 {
-	return (float64(t) - 0.5*float64(w.T+1)) / float64(w.T)
+	for i := range w.taus {
+		w.taus[i] = (float64(i+1) - 0.5*float64(T+1)) / Tf
+	}
+	w.tabT = T
 }
 
 // ssr is the SSR of regressing observations a+1..b on z_t (O(1)).
@@ -749,9 +762,9 @@ func (w *bpWork) fitSegments(bounds []int) {
 		// into s.zz): stores through s in the loop cost a memory round
 		// trip per observation, more so under WebAssembly.
 		var z00, z01, z11 float64
-		ys, res := w.ys[s.lo:s.hi], w.res[s.lo:s.hi]
+		ys, res, taus := w.ys[s.lo:s.hi], w.res[s.lo:s.hi], w.taus[s.lo:s.hi]
 		for i, y := range ys {
-			tau := w.tau(s.lo + i + 1)
+			tau := taus[i] // τ_t, t = s.lo+i+1
 			u := y - c0 - c1*tau
 			if i < len(res) {
 				res[i] = u
