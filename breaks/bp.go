@@ -804,9 +804,10 @@ func (w *bpWork) fitSegments(bounds []int) {
 	if prewhiten {
 		num, den := 0.0, 0.0
 		for _, s := range w.segs {
-			for i := s.lo + 1; i < s.hi; i++ {
-				num += w.res[i] * w.res[i-1]
-				den += w.res[i-1] * w.res[i-1]
+			if s.hi-s.lo >= 2 {
+				// Σ û_i û_{i-1} and Σ û²_{i-1}, i = lo+1..hi-1, in order.
+				num = bpDotFrom(num, w.res[s.lo+1:s.hi], w.res[s.lo:s.hi-1])
+				den = bpDotFrom(den, w.res[s.lo:s.hi-1], w.res[s.lo:s.hi-1])
 			}
 		}
 		if den > 0 {
@@ -845,11 +846,12 @@ func (w *bpWork) fitSegments(bounds []int) {
 		var sxy, sxx, syy float64
 		cnt := 0
 		for _, s := range w.segs {
-			for i := s.lo + first + 1; i < s.hi; i++ {
-				sxy += e[i] * e[i-1]
-				sxx += e[i-1] * e[i-1]
-				syy += e[i] * e[i]
-				cnt++
+			if a := s.lo + first; s.hi-a >= 2 {
+				// i = a+1..hi-1, each sum in order.
+				sxy = bpDotFrom(sxy, e[a+1:s.hi], e[a:s.hi-1])
+				sxx = bpDotFrom(sxx, e[a:s.hi-1], e[a:s.hi-1])
+				syy = bpDotFrom(syy, e[a+1:s.hi], e[a+1:s.hi])
+				cnt += s.hi - a - 1
 			}
 		}
 		bw = 0
@@ -898,10 +900,7 @@ func (w *bpWork) fitSegments(bounds []int) {
 					}
 					wt = 1 - float64(i)/float64(l+1)
 				}
-				g := 0.0
-				for t := start + i; t < s.hi; t++ {
-					g += e[t] * e[t-i]
-				}
+				g := bpDotFrom(0, e[start+i:s.hi], e[start:s.hi-i]) // Σ_t e_t e_{t-i} in order
 				if i == 0 {
 					om += g
 				} else {
@@ -1523,6 +1522,28 @@ func (w *bpWork) loadRaw(y []float64, q int) {
 		w.py[i+1], w.pyy[i+1], w.psy[i+1] = sy, syy, ssy
 	}
 	w.ys = append(w.ys[:0], y...)
+}
+
+// bpDotFrom returns s + Σ x_i y_i (len(y) >= len(x)) added to s in order
+// from i = 0, as the plain loop `for i { s += x[i]*y[i] }` does, so the sum
+// is the same bit for bit; the loop is unrolled by four, since under
+// WebAssembly every pass of a Go loop is a jump through the function's
+// block dispatcher plus bounds checks (as longDot in search.go).
+func bpDotFrom(s float64, x, y []float64) float64 {
+	y = y[:len(x)]
+	for len(x) >= 4 && len(y) >= 4 {
+		a, b := (*[4]float64)(x), (*[4]float64)(y)
+		s += a[0] * b[0]
+		s += a[1] * b[1]
+		s += a[2] * b[2]
+		s += a[3] * b[3]
+		x, y = x[4:], y[4:]
+	}
+	y = y[:len(x)]
+	for i, v := range x {
+		s += v * y[i]
+	}
+	return s
 }
 
 func bpGrow(s []float64, n int) []float64 {
