@@ -332,7 +332,9 @@ type bpWork struct {
 	taus        []float64
 	tabT        int
 	// Dynamic programme: opt[m][b] is the minimal SSR of observations 1..b
-	// with m breaks, arg[m][b] the last break of that partition.
+	// with m breaks, arg[m][b] the last break of that partition; dp fills
+	// only the cells a partition of 1..T can pass through (b = T, and
+	// b <= T-h below the top level), the others are +Inf and -1.
 	opt [][]float64
 	arg [][]int32
 	h   int
