@@ -325,17 +325,22 @@ type bpWork struct {
 	ys   []float64
 	// Prefix sums over t = 1..i at index i: y, y², τy.
 	py, pyy, psy []float64
-	// Per segment length n: 1/n and T²·12/(n(n²-1)) = 1/Σ(τ-τ̄)².
+	// Per segment length n: 1/n and T²·12/(n(n²-1)) = 1/Σ(τ-τ̄)²; taus[i]
+	// is τ_{i+1}. They depend on T only and are kept while T is tabT
+	// (replications of one simulation share them).
 	invn, invss []float64
+	taus        []float64
+	tabT        int
 	// Dynamic programme: opt[m][b] is the minimal SSR of observations 1..b
-	// with m breaks, arg[m][b] the last break of that partition.
+	// with m breaks, arg[m][b] the last break of that partition; dp fills
+	// only the cells a partition of 1..T can pass through (b = T, and
+	// b <= T-h below the top level), the others are +Inf and -1.
 	opt [][]float64
 	arg [][]int32
 	h   int
 	// Scratch for the Wald statistics.
 	res  []float64
-	v    [][2]float64
-	e    [][2]float64
+	e    []float64
 	segs []bpSeg
 	mat  []float64
 	vec  []float64
@@ -364,18 +369,28 @@ func (w *bpWork) load(y []float64, q int) {
 	w.py = bpGrow(w.py, T+1)
 	w.pyy = bpGrow(w.pyy, T+1)
 	w.psy = bpGrow(w.psy, T+1)
-	w.invn = bpGrow(w.invn, T+1)
-	w.invss = bpGrow(w.invss, T+1)
-	c := 0.5 * float64(T+1)
-	Tf := float64(T)
+	w.tables(T)
 	var sy, syy, ssy float64
-	for i, v := range w.ys {
-		tau := (float64(i+1) - c) / Tf
+	ys, taus, py, pyy, psy := w.ys[:T], w.taus[:T], w.py[1:T+1], w.pyy[1:T+1], w.psy[1:T+1]
+	for i, v := range ys {
+		tau := taus[i] // (float64(i+1) - 0.5*float64(T+1)) / float64(T)
 		sy += v
 		syy += v * v
 		ssy += tau * v
-		w.py[i+1], w.pyy[i+1], w.psy[i+1] = sy, syy, ssy
+		py[i], pyy[i], psy[i] = sy, syy, ssy
 	}
+}
+
+// tables fills invn, invss and taus for length T unless they are already
+// those of T.
+func (w *bpWork) tables(T int) {
+	if w.tabT == T && len(w.invn) == T+1 && len(w.invss) == T+1 && len(w.taus) == T {
+		return
+	}
+	Tf := float64(T)
+	w.invn = bpGrow(w.invn, T+1)
+	w.invss = bpGrow(w.invss, T+1)
+	w.taus = bpGrow(w.taus, T)
 	w.invn[0], w.invss[0] = 0, 0
 	for n := 1; n <= T; n++ {
 		nf := float64(n)
@@ -386,11 +401,10 @@ func (w *bpWork) load(y []float64, q int) {
 			w.invss[n] = 0
 		}
 	}
-}
-
-// tau returns τ_t for 1-based t.
-func (w *bpWork) tau(t int) float64 {
-	return (float64(t) - 0.5*float64(w.T+1)) / float64(w.T)
+	for i := range w.taus {
+		w.taus[i] = (float64(i+1) - 0.5*float64(T+1)) / Tf
+	}
+	w.tabT = T
 }
 
 // ssr is the SSR of regressing observations a+1..b on z_t (O(1)).
@@ -454,39 +468,155 @@ func (w *bpWork) dp(h, M int) int {
 			o0[b] = math.Inf(1)
 		}
 	}
-	py, pyy, psy, invn, invss := w.py, w.pyy, w.psy, w.invn, w.invss
-	q2 := w.q == 2
-	Tf := float64(T)
-	c := 0.5 * float64(T+1)
+	// Only the cells that the statistics read are computed: opt[m][T]
+	// (the minimal SSR with m breaks, where every backtrack starts), and
+	// opt[m][b] for b <= T-h, the possible last breaks of level m+1. The
+	// cells T-h < b < T, and every b < T at the top level, stay +Inf with
+	// last break -1: no partition of 1..T passes through them.
 	for m := 1; m <= M; m++ {
 		prev, cur, arg := w.opt[m-1], w.opt[m], w.arg[m]
-		for b := 0; b < (m+1)*h && b <= T; b++ {
+		for b := range cur {
 			cur[b] = math.Inf(1)
 			arg[b] = -1
 		}
+		hi := T - h
+		if m == M {
+			hi = (m+1)*h - 1
+		}
 		for b := (m + 1) * h; b <= T; b++ {
-			best, bi := math.Inf(1), -1
-			pyb, pyyb, psyb := py[b], pyy[b], psy[b]
-			for p := m * h; p <= b-h; p++ {
-				n := b - p
-				sy := pyb - py[p]
-				r := (pyyb - pyy[p]) - sy*sy*invn[n]
-				if q2 {
-					ms := (0.5*float64(p+1+b) - c) / Tf
-					sc := (psyb - psy[p]) - ms*sy
-					r -= sc * sc * invss[n]
-				}
-				if r < 0 {
-					r = 0
-				}
-				if v := prev[p] + r; v < best {
-					best, bi = v, p
-				}
+			if b > hi && b < T {
+				continue
+			}
+			var best float64
+			var bi int
+			if w.q == 2 {
+				best, bi = w.dpMinTrend(prev, m*h, b-h, b)
+			} else {
+				best, bi = w.dpMinMean(prev, m*h, b-h, b)
 			}
 			cur[b], arg[b] = best, int32(bi)
 		}
 	}
 	return M
+}
+
+// dpMinMean and dpMinTrend return the minimum over p = lo..hi of
+// prev[p] + SSR(p, b) and the first p attaining it (-1 when none is below
+// +Inf): the inner loop of the dynamic programme, for the mean-shift model
+// (q = 1) and the trend model (q = 2). They are written for WebAssembly,
+// where Go compiles every taken branch to a jump through the function's
+// block dispatcher and keeps float compare-and-assign as a branch: one loop
+// per model (no test of q per candidate), two candidates per pass (half
+// the back edges), the clamp of a negative SSR to zero as a select on the
+// float's bits, and the running minimum as an unsigned comparison of the
+// bits, which is branch-free. The bits of non-negative floats (+0 up to
+// +Inf) order as the floats do, and every candidate is one: prev holds
+// sums of clamped SSRs or +Inf, and -0 cannot arise (a difference of equal
+// prefix sums is +0); a NaN candidate (bits above +Inf) is never taken,
+// as with a float comparison. The arithmetic and the order of the
+// comparisons are those of the plain loop, so the results are the same bit
+// for bit (TestBPDPMatchesReference).
+func (w *bpWork) dpMinMean(prev []float64, lo, hi, b int) (float64, int) {
+	n := hi - lo + 1
+	if n <= 0 {
+		return math.Inf(1), -1
+	}
+	pyb, pyyb := w.py[b], w.pyy[b]
+	py, pyy, pv := w.py[lo:lo+n], w.pyy[lo:lo+n], prev[lo:lo+n]
+	// inv[n-1-i] = 1/(b-lo-i), the segment length of candidate lo+i.
+	inv := w.invn[b-hi : b-lo+1]
+	best, bi := uint64(bpInfBits), -1
+	i := 0
+	for ; i+1 < len(py) && i+1 < len(pyy) && i+1 < len(pv) && i+1 < len(inv); i += 2 {
+		sy0 := pyb - py[i]
+		r0 := (pyyb - pyy[i]) - sy0*sy0*inv[len(inv)-1-i]
+		sy1 := pyb - py[i+1]
+		r1 := (pyyb - pyy[i+1]) - sy1*sy1*inv[len(inv)-2-i]
+		v0 := math.Float64bits(pv[i] + bpClamp0(r0))
+		v1 := math.Float64bits(pv[i+1] + bpClamp0(r1))
+		if v0 < best {
+			best, bi = v0, i
+		}
+		if v1 < best {
+			best, bi = v1, i+1
+		}
+	}
+	if i < n {
+		sy := pyb - py[i]
+		r := (pyyb - pyy[i]) - sy*sy*inv[len(inv)-1-i]
+		if v := math.Float64bits(pv[i] + bpClamp0(r)); v < best {
+			best, bi = v, i
+		}
+	}
+	if bi >= 0 {
+		bi += lo
+	}
+	return math.Float64frombits(best), bi
+}
+
+func (w *bpWork) dpMinTrend(prev []float64, lo, hi, b int) (float64, int) {
+	n := hi - lo + 1
+	if n <= 0 {
+		return math.Inf(1), -1
+	}
+	pyb, pyyb, psyb := w.py[b], w.pyy[b], w.psy[b]
+	py, pyy, psy, pv := w.py[lo:lo+n], w.pyy[lo:lo+n], w.psy[lo:lo+n], prev[lo:lo+n]
+	inv, invs := w.invn[b-hi:b-lo+1], w.invss[b-hi:b-lo+1]
+	Tf := float64(w.T)
+	c := 0.5 * float64(w.T+1)
+	best, bi := uint64(bpInfBits), -1
+	i := 0
+	for ; i+1 < len(py) && i+1 < len(pyy) && i+1 < len(psy) && i+1 < len(pv) && i+1 < len(inv) && len(invs) == len(inv); i += 2 {
+		p := lo + i
+		j0, j1 := len(inv)-1-i, len(inv)-2-i
+		sy0 := pyb - py[i]
+		r0 := (pyyb - pyy[i]) - sy0*sy0*inv[j0]
+		ms0 := (0.5*float64(p+1+b) - c) / Tf
+		sc0 := (psyb - psy[i]) - ms0*sy0
+		r0 -= sc0 * sc0 * invs[j0]
+		sy1 := pyb - py[i+1]
+		r1 := (pyyb - pyy[i+1]) - sy1*sy1*inv[j1]
+		ms1 := (0.5*float64(p+2+b) - c) / Tf
+		sc1 := (psyb - psy[i+1]) - ms1*sy1
+		r1 -= sc1 * sc1 * invs[j1]
+		v0 := math.Float64bits(pv[i] + bpClamp0(r0))
+		v1 := math.Float64bits(pv[i+1] + bpClamp0(r1))
+		if v0 < best {
+			best, bi = v0, i
+		}
+		if v1 < best {
+			best, bi = v1, i+1
+		}
+	}
+	if i < n {
+		p := lo + i
+		j := len(inv) - 1 - i
+		sy := pyb - py[i]
+		r := (pyyb - pyy[i]) - sy*sy*inv[j]
+		ms := (0.5*float64(p+1+b) - c) / Tf
+		sc := (psyb - psy[i]) - ms*sy
+		r -= sc * sc * invs[j]
+		if v := math.Float64bits(pv[i] + bpClamp0(r)); v < best {
+			best, bi = v, i
+		}
+	}
+	if bi >= 0 {
+		bi += lo
+	}
+	return math.Float64frombits(best), bi
+}
+
+// bpInfBits is the bit pattern of +Inf.
+const bpInfBits = 0x7FF0000000000000
+
+// bpClamp0 returns r, or +0 when r < 0 (as if r < 0 { r = 0 }), without a
+// float branch.
+func bpClamp0(r float64) float64 {
+	u := math.Float64bits(r)
+	if r < 0 {
+		u = 0
+	}
+	return math.Float64frombits(u)
 }
 
 // dates writes the m break dates of the global optimum over 1..T into dst.
@@ -623,29 +753,30 @@ func (w *bpWork) fitSegments(bounds []int) {
 	w.segs = w.segs[:k1]
 	T := w.T
 	w.res = bpGrow(w.res, T)
-	if cap(w.v) < T {
-		w.v = make([][2]float64, T)
-		w.e = make([][2]float64, T)
-	}
-	w.v, w.e = w.v[:T], w.e[:T]
+	w.e = bpGrow(w.e, T)
 	ssrTot := 0.0
 	for j := 0; j < k1; j++ {
 		s := &w.segs[j]
 		s.lo, s.hi = bounds[j], bounds[j+1]
 		c0, c1 := w.segFit(s.lo, s.hi)
 		s.d = [2]float64{c0, c1}
-		s.zz = [2][2]float64{}
-		for i := s.lo; i < s.hi; i++ {
-			tau := w.tau(i + 1)
-			u := w.ys[i] - c0 - c1*tau
-			w.res[i] = u
+		// The sums in locals (the same additions in the same order as
+		// into s.zz): stores through s in the loop cost a memory round
+		// trip per observation, more so under WebAssembly.
+		var z00, z01, z11 float64
+		ys, res, taus := w.ys[s.lo:s.hi], w.res[s.lo:s.hi], w.taus[s.lo:s.hi]
+		for i, y := range ys {
+			tau := taus[i] // τ_t, t = s.lo+i+1
+			u := y - c0 - c1*tau
+			if i < len(res) {
+				res[i] = u
+			}
 			ssrTot += u * u
-			w.v[i] = [2]float64{u, tau * u}
-			s.zz[0][0]++
-			s.zz[0][1] += tau
-			s.zz[1][1] += tau * tau
+			z00++
+			z01 += tau
+			z11 += tau * tau
 		}
-		s.zz[1][0] = s.zz[0][1]
+		s.zz = [2][2]float64{{z00, z01}, {z01, z11}}
 	}
 	lo, hi := bounds[0], bounds[k1]
 	n := hi - lo
@@ -675,9 +806,10 @@ func (w *bpWork) fitSegments(bounds []int) {
 	if prewhiten {
 		num, den := 0.0, 0.0
 		for _, s := range w.segs {
-			for i := s.lo + 1; i < s.hi; i++ {
-				num += w.res[i] * w.res[i-1]
-				den += w.res[i-1] * w.res[i-1]
+			if s.hi-s.lo >= 2 {
+				// Σ û_i û_{i-1} and Σ û²_{i-1}, i = lo+1..hi-1, in order.
+				num = bpDotFrom(num, w.res[s.lo+1:s.hi], w.res[s.lo:s.hi-1])
+				den = bpDotFrom(den, w.res[s.lo:s.hi-1], w.res[s.lo:s.hi-1])
 			}
 		}
 		if den > 0 {
@@ -702,12 +834,12 @@ func (w *bpWork) fitSegments(bounds []int) {
 	}
 	e := w.e
 	for _, s := range w.segs {
-		for i := s.lo + first; i < s.hi; i++ {
-			if prewhiten {
-				e[i][0] = w.res[i] - rho*w.res[i-1]
-			} else {
-				e[i][0] = w.res[i]
+		if prewhiten {
+			for i := s.lo + 1; i < s.hi; i++ {
+				e[i] = w.res[i] - rho*w.res[i-1]
 			}
+		} else {
+			copy(e[s.lo:s.hi], w.res[s.lo:s.hi])
 		}
 	}
 	// Step 2: bandwidth.
@@ -716,11 +848,12 @@ func (w *bpWork) fitSegments(bounds []int) {
 		var sxy, sxx, syy float64
 		cnt := 0
 		for _, s := range w.segs {
-			for i := s.lo + first + 1; i < s.hi; i++ {
-				sxy += e[i][0] * e[i-1][0]
-				sxx += e[i-1][0] * e[i-1][0]
-				syy += e[i][0] * e[i][0]
-				cnt++
+			if a := s.lo + first; s.hi-a >= 2 {
+				// i = a+1..hi-1, each sum in order.
+				sxy = bpDotFrom(sxy, e[a+1:s.hi], e[a:s.hi-1])
+				sxx = bpDotFrom(sxx, e[a:s.hi-1], e[a:s.hi-1])
+				syy = bpDotFrom(syy, e[a+1:s.hi], e[a+1:s.hi])
+				cnt += s.hi - a - 1
 			}
 		}
 		bw = 0
@@ -769,10 +902,7 @@ func (w *bpWork) fitSegments(bounds []int) {
 					}
 					wt = 1 - float64(i)/float64(l+1)
 				}
-				g := 0.0
-				for t := start + i; t < s.hi; t++ {
-					g += e[t][0] * e[t-i][0]
-				}
+				g := bpDotFrom(0, e[start+i:s.hi], e[start:s.hi-i]) // Σ_t e_t e_{t-i} in order
 				if i == 0 {
 					om += g
 				} else {
@@ -1394,6 +1524,28 @@ func (w *bpWork) loadRaw(y []float64, q int) {
 		w.py[i+1], w.pyy[i+1], w.psy[i+1] = sy, syy, ssy
 	}
 	w.ys = append(w.ys[:0], y...)
+}
+
+// bpDotFrom returns s + Σ x_i y_i (len(y) >= len(x)) added to s in order
+// from i = 0, as the plain loop `for i { s += x[i]*y[i] }` does, so the sum
+// is the same bit for bit; the loop is unrolled by four, since under
+// WebAssembly every pass of a Go loop is a jump through the function's
+// block dispatcher plus bounds checks (as longDot in search.go).
+func bpDotFrom(s float64, x, y []float64) float64 {
+	y = y[:len(x)]
+	for len(x) >= 4 && len(y) >= 4 {
+		a, b := (*[4]float64)(x), (*[4]float64)(y)
+		s += a[0] * b[0]
+		s += a[1] * b[1]
+		s += a[2] * b[2]
+		s += a[3] * b[3]
+		x, y = x[4:], y[4:]
+	}
+	y = y[:len(x)]
+	for i, v := range x {
+		s += v * y[i]
+	}
+	return s
 }
 
 func bpGrow(s []float64, n int) []float64 {

@@ -270,6 +270,10 @@ func (g *explEngine) load(y []float64) error {
 		pre[i] = 0
 	}
 	invT := 1 / float64(T)
+	if k == 2 && g.nd == 1 && p == 0 && m == 6 {
+		g.load2()
+		return g.loadCheck()
+	}
 	for t := p + 2; t <= T; t++ { // 1-based observation t; y_t = ys[t-1]
 		j := 0
 		if g.nd >= 1 {
@@ -300,13 +304,39 @@ func (g *explEngine) load(y []float64) error {
 		}
 		cur[q] = prev[q] + dy*dy
 	}
-	last := pre[T*m : (T+1)*m]
+	return g.loadCheck()
+}
+
+// loadCheck reports ErrNonFinite when the prefix sums overflowed.
+func (g *explEngine) loadCheck() error {
+	last := g.pre[g.T*g.m : (g.T+1)*g.m]
 	for _, v := range last {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
 			return ErrNonFinite
 		}
 	}
 	return nil
+}
+
+// load2 is the prefix-sum loop of load for a constant and no lags (k = 2,
+// x = (1, y_{t-1})), the simulation's default: the loops over the columns
+// written out, the same products and sums in the same order (TestLoad2
+// MatchesGeneral), without the short inner loops whose every pass is a
+// jump through the block dispatcher under WebAssembly.
+func (g *explEngine) load2() {
+	T, ys, pre := g.T, g.ys, g.pre
+	for t := 2; t <= T; t++ {
+		x0, x1 := 1.0, ys[t-2]
+		dy := ys[t-1] - ys[t-2]
+		prev, cur := pre[(t-1)*6:t*6], pre[t*6:(t+1)*6]
+		prev, cur = prev[:6], cur[:6]
+		cur[0] = prev[0] + x0*x0
+		cur[1] = prev[1] + x1*x0
+		cur[2] = prev[2] + x1*x1
+		cur[3] = prev[3] + x0*dy
+		cur[4] = prev[4] + x1*dy
+		cur[5] = prev[5] + dy*dy
+	}
 }
 
 // explExactTol is the exact-fit rule of a window regression: SSR <=
@@ -332,19 +362,14 @@ func (g *explEngine) window(s, e int) (float64, bool) {
 	lo := g.pre[(s+g.p)*m : (s+g.p+1)*m]
 	nr := &g.nrm
 	A, B := nr.A, nr.B
-	q := 0
-	for a := 0; a < k; a++ {
-		row := A[a*k : a*k+a+1]
-		for b := range row {
-			row[b] = hi[q] - lo[q]
-			q++
-		}
+	if k == 2 && m == 6 && len(A) >= 4 && len(B) >= 2 && len(hi) >= 6 && len(lo) >= 6 {
+		// The loops below for k = 2, written out (see load2).
+		A[0], A[2], A[3] = hi[0]-lo[0], hi[1]-lo[1], hi[2]-lo[2]
+		B[0], B[1] = hi[3]-lo[3], hi[4]-lo[4]
+		nr.YY = hi[5] - lo[5]
+	} else {
+		g.windowSums(hi, lo)
 	}
-	for a := 0; a < k; a++ {
-		B[a] = hi[q] - lo[q]
-		q++
-	}
-	nr.YY = hi[q] - lo[q]
 	nr.N = n
 	ssr, err := nr.Solve()
 	if err != nil {
@@ -373,6 +398,27 @@ func (g *explEngine) window(s, e int) (float64, bool) {
 		return 0, false
 	}
 	return t, true
+}
+
+// windowSums sets the Normal's A (lower triangle), B and YY of the window
+// from the prefix sums hi (its end) and lo (before its start).
+func (g *explEngine) windowSums(hi, lo []float64) {
+	k := g.k
+	nr := &g.nrm
+	A, B := nr.A, nr.B
+	q := 0
+	for a := 0; a < k; a++ {
+		row := A[a*k : a*k+a+1]
+		for b := range row {
+			row[b] = hi[q] - lo[q]
+			q++
+		}
+	}
+	for a := 0; a < k; a++ {
+		B[a] = hi[q] - lo[q]
+		q++
+	}
+	nr.YY = hi[q] - lo[q]
 }
 
 // exactErr is the error of a scan that met an exact fit with an explosive

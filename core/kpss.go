@@ -81,8 +81,23 @@ func (w *KPSSWork) Stat(y []float64, trend Trend, kernel Kernel, rule BandwidthR
 		return 0, used, err
 	}
 	T := float64(len(y))
+	// Σ S_t² with S_t the partial sums, unrolled by four (the same
+	// additions in the same order; see dotInOrder).
 	s, ss := 0.0, 0.0
-	for _, v := range w.e {
+	e := w.e
+	for len(e) >= 4 {
+		a := (*[4]float64)(e)
+		s += a[0]
+		ss += s * s
+		s += a[1]
+		ss += s * s
+		s += a[2]
+		ss += s * s
+		s += a[3]
+		ss += s * s
+		e = e[4:]
+	}
+	for _, v := range e {
 		s += v
 		ss += s * s
 	}

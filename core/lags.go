@@ -760,10 +760,7 @@ func Detrend(dst, y []float64, det Trend) []float64 {
 		copy(dst, y)
 		return dst
 	}
-	mean := 0.0
-	for _, v := range y {
-		mean += v
-	}
+	mean := sumInOrder(y)
 	if n > 0 {
 		mean /= float64(n)
 	}
@@ -781,8 +778,34 @@ func Detrend(dst, y []float64, det Trend) []float64 {
 		}
 		return dst
 	}
-	for i, v := range y {
-		dst[i] = v - mean
+	d, x := dst[:n], y[:n]
+	for len(d) >= 4 && len(x) >= 4 { // unrolled by four (see dotInOrder)
+		a, b := (*[4]float64)(d), (*[4]float64)(x)
+		a[0], a[1], a[2], a[3] = b[0]-mean, b[1]-mean, b[2]-mean, b[3]-mean
+		d, x = d[4:], x[4:]
+	}
+	x = x[:len(d)]
+	for i := range d {
+		d[i] = x[i] - mean
 	}
 	return dst
+}
+
+// sumInOrder returns Σ x_i summed in order from i = 0 into one
+// accumulator, as the plain loop does (the same sum bit for bit), with the
+// loop unrolled by four (see dotInOrder).
+func sumInOrder(x []float64) float64 {
+	s := 0.0
+	for len(x) >= 4 {
+		a := (*[4]float64)(x)
+		s += a[0]
+		s += a[1]
+		s += a[2]
+		s += a[3]
+		x = x[4:]
+	}
+	for _, v := range x {
+		s += v
+	}
+	return s
 }

@@ -46,11 +46,31 @@ func Autocov(u []float64, j int) float64 {
 	if j >= n || n == 0 {
 		return 0
 	}
+	return dotInOrder(u[j:], u[:n-j]) / float64(n)
+}
+
+// dotInOrder returns Σ x_i y_i (len(y) >= len(x)) summed in order from
+// i = 0 into one accumulator, as the plain loop does, so the sum is the
+// same bit for bit; the loop is unrolled by four. Under WebAssembly every
+// pass of a Go loop is a jump through the function's block dispatcher plus
+// a bounds check, which cost more than the product itself (the
+// long-run variances of KPSS and Phillips-Perron are such sums).
+func dotInOrder(x, y []float64) float64 {
 	s := 0.0
-	for t := j; t < n; t++ {
-		s += u[t] * u[t-j]
+	y = y[:len(x)]
+	for len(x) >= 4 && len(y) >= 4 {
+		a, b := (*[4]float64)(x), (*[4]float64)(y) // no bounds checks below
+		s += a[0] * b[0]
+		s += a[1] * b[1]
+		s += a[2] * b[2]
+		s += a[3] * b[3]
+		x, y = x[4:], y[4:]
 	}
-	return s / float64(n)
+	y = y[:len(x)]
+	for i, v := range x {
+		s += v * y[i]
+	}
+	return s
 }
 
 // QSWeight is the quadratic-spectral kernel k(x) of Andrews (1991, eq. 2.7).

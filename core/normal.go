@@ -68,6 +68,9 @@ func (m *Normal) Size(k int) {
 // scaled matrix is not numerically positive definite.
 func (m *Normal) Solve() (ssr float64, err error) {
 	k := m.K
+	if k == 2 && len(m.A) >= 4 && len(m.l) >= 4 && len(m.d) >= 2 && len(m.z) >= 2 && len(m.Coef) >= 2 && len(m.B) >= 2 {
+		return m.solve2()
+	}
 	A, L, d := m.A, m.l, m.d
 	for i := 0; i < k; i++ {
 		a := A[i*k+i]
@@ -110,6 +113,45 @@ func (m *Normal) Solve() (ssr float64, err error) {
 		ssr -= z[i] * z[i]
 		c[i] *= d[i]
 	}
+	if ssr < 0 {
+		ssr = 0
+	}
+	return ssr, nil
+}
+
+// solve2 is Solve for two regressors (a constant and y_{t-1} in the
+// rolling windows of the explosive-root tests): the same operations in the
+// same order, written out without the loops, whose every pass is a jump
+// through the function's block dispatcher under WebAssembly. An empty sum
+// of the general loops is 0, and x - 0 = x, so the results are the same bit
+// for bit (TestSolve2MatchesGeneral).
+func (m *Normal) solve2() (ssr float64, err error) {
+	A, L, d, z, c, B := m.A[:4], m.l[:4], m.d[:2], m.z[:2], m.Coef[:2], m.B[:2]
+	a0, a1 := A[0], A[3]
+	if !(a0 > 0) || !(a1 > 0) {
+		return 0, ErrSingular
+	}
+	d0, d1 := 1/math.Sqrt(a0), 1/math.Sqrt(a1)
+	d[0], d[1] = d0, d1
+	s := a0 * d0 * d0
+	if s <= 1e-12 {
+		return 0, ErrSingular
+	}
+	l00 := math.Sqrt(s)
+	l10 := A[2] * d1 * d0 / l00
+	s = a1*d1*d1 - l10*l10
+	if s <= 1e-12 {
+		return 0, ErrSingular
+	}
+	l11 := math.Sqrt(s)
+	L[0], L[2], L[3] = l00, l10, l11
+	z0 := B[0] * d0 / l00
+	z1 := (B[1]*d1 - l10*z0) / l11
+	z[0], z[1] = z0, z1
+	c1 := z1 / l11
+	c0 := (z0 - l10*c1) / l00
+	ssr = m.YY - z0*z0 - z1*z1
+	c[0], c[1] = c0*d0, c1*d1
 	if ssr < 0 {
 		ssr = 0
 	}
@@ -165,6 +207,13 @@ func (m *Normal) InvDiag(j int) float64 {
 	// Solve L w = e_j, starting at row j.
 	k := m.K
 	L, w := m.l, m.z
+	if j == k-1 && j >= 0 && j*k+j < len(L) && j < len(w) && j < len(m.d) {
+		// The last column (the t-ratio's, in the rolling windows): one
+		// pass of the loop below, written out (s = 0 + w_j² = w_j²).
+		wj := 1 / L[j*k+j]
+		w[j] = wj
+		return wj * wj * m.d[j] * m.d[j]
+	}
 	s := 0.0
 	for i := j; i < k; i++ {
 		v := 0.0
