@@ -229,6 +229,29 @@ func (w *DFWork) plainSample(y []float64, det Trend, kmax int) bool {
 	return tss > 0 && !math.IsInf(tss, 0) && !math.IsInf(lss, 0)
 }
 
+// gather sets w.nm to the normal equations of the regressors idx (columns
+// of a design whose X'X lower triangle is xx, row stride stride, and X'y is
+// xy) in the order given, with y'y = yy over n observations, and returns
+// it. Every entry Solve and NestedSSR read is set.
+func (w *DFWork) gather(xx, xy []float64, stride int, idx []int, yy float64, n int) *Normal {
+	p := len(idx)
+	nm := &w.nm
+	nm.Size(p)
+	for i, a := range idx {
+		nm.B[i] = xy[a]
+		for j := 0; j <= i; j++ {
+			b := idx[j]
+			if a >= b {
+				nm.A[i*p+j] = xx[a*stride+b]
+			} else {
+				nm.A[i*p+j] = xx[b*stride+a]
+			}
+		}
+	}
+	nm.YY, nm.N = yy, n
+	return nm
+}
+
 // selectNested is the AIC/BIC part of selectLagsFast: with the columns in
 // the order [deterministic terms, y_{t-1}, Δy_{t-1}, ..., Δy_{t-kmax}] the
 // design at k lags is a leading block of the design at kmax, so one
@@ -254,20 +277,7 @@ func (w *DFWork) selectNestedIn(xx, xy []float64, yy float64, stride, m, kmax, n
 	for i := 0; i <= kmax; i++ {
 		idx[nd+i] = i
 	}
-	nm := &w.nm
-	nm.Reset(m)
-	for i, a := range idx {
-		nm.B[i] = xy[a]
-		for j := 0; j <= i; j++ {
-			b := idx[j]
-			if a >= b {
-				nm.A[i*m+j] = xx[a*stride+b]
-			} else {
-				nm.A[i*m+j] = xx[b*stride+a]
-			}
-		}
-	}
-	nm.YY, nm.N = yy, n
+	nm := w.gather(xx, xy, stride, idx, yy, n)
 	w.ssrs = grow(w.ssrs, m)
 	if err := nm.NestedSSR(w.ssrs); err != nil {
 		return 0, false
@@ -398,21 +408,7 @@ func (w *DFWork) tSolve(stride, k, nd int, yy float64, n int) (t float64, ok boo
 		idx[nd+i-1] = i
 	}
 	idx[p-1] = 0
-	xx, xy := w.xx, w.xy
-	nm := &w.nm
-	nm.Size(p)
-	for i, a := range idx {
-		nm.B[i] = xy[a]
-		for j := 0; j <= i; j++ {
-			b := idx[j]
-			if a >= b {
-				nm.A[i*p+j] = xx[a*stride+b]
-			} else {
-				nm.A[i*p+j] = xx[b*stride+a]
-			}
-		}
-	}
-	nm.YY, nm.N = yy, n
+	nm := w.gather(w.xx, w.xy, stride, idx, yy, n)
 	ssr, err := nm.Solve()
 	if err != nil || !(ssr > 1e-10*yy) {
 		return 0, false
@@ -609,16 +605,7 @@ func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) 
 		for i := 0; i < nd; i++ {
 			idx[kk+1+i] = kmax + 1 + i
 		}
-		nm := &w.nm
-		nm.Reset(p)
-		for i, a := range idx {
-			nm.B[i] = xy[a]
-			for j := 0; j <= i; j++ {
-				b := idx[j]
-				nm.A[i*p+j] = xx[a*m+b] // a >= b: lower triangle of xx
-			}
-		}
-		nm.YY, nm.N = yy, n
+		nm := w.gather(xx, xy, m, idx, yy, n)
 		ssr, err := nm.Solve()
 		if err != nil || !(ssr > 0) {
 			return 0, false
