@@ -808,8 +808,8 @@ func (w *bpWork) fitSegments(bounds []int) {
 		for _, s := range w.segs {
 			if s.hi-s.lo >= 2 {
 				// Σ û_i û_{i-1} and Σ û²_{i-1}, i = lo+1..hi-1, in order.
-				num = bpDotFrom(num, w.res[s.lo+1:s.hi], w.res[s.lo:s.hi-1])
-				den = bpDotFrom(den, w.res[s.lo:s.hi-1], w.res[s.lo:s.hi-1])
+				num = core.DotFrom(num, w.res[s.lo+1:s.hi], w.res[s.lo:s.hi-1])
+				den = core.DotFrom(den, w.res[s.lo:s.hi-1], w.res[s.lo:s.hi-1])
 			}
 		}
 		if den > 0 {
@@ -850,9 +850,9 @@ func (w *bpWork) fitSegments(bounds []int) {
 		for _, s := range w.segs {
 			if a := s.lo + first; s.hi-a >= 2 {
 				// i = a+1..hi-1, each sum in order.
-				sxy = bpDotFrom(sxy, e[a+1:s.hi], e[a:s.hi-1])
-				sxx = bpDotFrom(sxx, e[a:s.hi-1], e[a:s.hi-1])
-				syy = bpDotFrom(syy, e[a+1:s.hi], e[a+1:s.hi])
+				sxy = core.DotFrom(sxy, e[a+1:s.hi], e[a:s.hi-1])
+				sxx = core.DotFrom(sxx, e[a:s.hi-1], e[a:s.hi-1])
+				syy = core.DotFrom(syy, e[a+1:s.hi], e[a+1:s.hi])
 				cnt += s.hi - a - 1
 			}
 		}
@@ -902,7 +902,7 @@ func (w *bpWork) fitSegments(bounds []int) {
 					}
 					wt = 1 - float64(i)/float64(l+1)
 				}
-				g := bpDotFrom(0, e[start+i:s.hi], e[start:s.hi-i]) // Σ_t e_t e_{t-i} in order
+				g := core.DotFrom(0, e[start+i:s.hi], e[start:s.hi-i]) // Σ_t e_t e_{t-i} in order
 				if i == 0 {
 					om += g
 				} else {
@@ -1524,28 +1524,6 @@ func (w *bpWork) loadRaw(y []float64, q int) {
 		w.py[i+1], w.pyy[i+1], w.psy[i+1] = sy, syy, ssy
 	}
 	w.ys = append(w.ys[:0], y...)
-}
-
-// bpDotFrom returns s + Σ x_i y_i (len(y) >= len(x)) added to s in order
-// from i = 0, as the plain loop `for i { s += x[i]*y[i] }` does, so the sum
-// is the same bit for bit; the loop is unrolled by four, since under
-// WebAssembly every pass of a Go loop is a jump through the function's
-// block dispatcher plus bounds checks (as longDot in search.go).
-func bpDotFrom(s float64, x, y []float64) float64 {
-	y = y[:len(x)]
-	for len(x) >= 4 && len(y) >= 4 {
-		a, b := (*[4]float64)(x), (*[4]float64)(y)
-		s += a[0] * b[0]
-		s += a[1] * b[1]
-		s += a[2] * b[2]
-		s += a[3] * b[3]
-		x, y = x[4:], y[4:]
-	}
-	y = y[:len(x)]
-	for i, v := range x {
-		s += v * y[i]
-	}
-	return s
 }
 
 func bpGrow(s []float64, n int) []float64 {

@@ -12,6 +12,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"testing"
+
+	"github.com/rootshift/rootshift/core"
 )
 
 // dpRef is the dynamic programme before the rewrite (the reference): the
@@ -172,7 +174,7 @@ func BenchmarkBPDP(b *testing.B) {
 	}
 }
 
-// TestBPDotFromMatchesLoop: bpDotFrom, behind the long-run variance of the
+// TestBPDotFromMatchesLoop: core.DotFrom, behind the long-run variance of the
 // Wald statistics (Bai & Perron 1998, section 4: the prewhitening, the
 // bandwidth and the kernel sums), equals the plain in-order loop bit for bit
 // for lengths 0..40 and several starting sums.
@@ -191,7 +193,7 @@ func TestBPDotFromMatchesLoop(t *testing.T) {
 			for i := range x {
 				want += x[i] * y[i]
 			}
-			if got := bpDotFrom(s0, x, y); math.Float64bits(got) != math.Float64bits(want) {
+			if got := core.DotFrom(s0, x, y); math.Float64bits(got) != math.Float64bits(want) {
 				t.Fatalf("n=%d s0=%v: %v, loop %v", n, s0, got, want)
 			}
 		}

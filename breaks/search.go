@@ -380,7 +380,7 @@ func (w *Searcher) grams(kk int) {
 		a := col(i)
 		for j := 2; j <= i; j++ {
 			b := col(j)
-			s := longDot(a[:head], b[:head])
+			s := core.DotFrom(0, a[:head], b[:head]) // unrolled, in order
 			for u := head; u < n; u++ {
 				s += a[u] * b[u]
 				if k := T - u - 2; k <= kk {
@@ -1253,28 +1253,6 @@ func cholPrefix(a, b []float64, K int, l, d, z []float64) int {
 func searchDot(x, y []float64) float64 {
 	s := 0.0
 	y = y[:len(x)] // hoists the bounds check out of the loop
-	for i, v := range x {
-		s += v * y[i]
-	}
-	return s
-}
-
-// longDot is searchDot for long vectors: the loop is unrolled by four with
-// the one accumulator, so the sum is the same bit for bit. Under
-// WebAssembly every taken branch of a Go function goes through the
-// function's block dispatcher, which costs more than the product itself.
-func longDot(x, y []float64) float64 {
-	s := 0.0
-	y = y[:len(x)]
-	for len(x) >= 4 && len(y) >= 4 {
-		a, b := (*[4]float64)(x), (*[4]float64)(y) // no bounds checks below
-		s += a[0] * b[0]
-		s += a[1] * b[1]
-		s += a[2] * b[2]
-		s += a[3] * b[3]
-		x, y = x[4:], y[4:]
-	}
-	y = y[:len(x)]
 	for i, v := range x {
 		s += v * y[i]
 	}

@@ -82,7 +82,7 @@ func (w *KPSSWork) Stat(y []float64, trend Trend, kernel Kernel, rule BandwidthR
 	}
 	T := float64(len(y))
 	// Σ S_t² with S_t the partial sums, unrolled by four (the same
-	// additions in the same order; see dotInOrder).
+	// additions in the same order; see DotFrom).
 	s, ss := 0.0, 0.0
 	e := w.e
 	for len(e) >= 4 {

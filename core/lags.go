@@ -766,7 +766,7 @@ func Detrend(dst, y []float64, det Trend) []float64 {
 		return dst
 	}
 	d, x := dst[:n], y[:n]
-	for len(d) >= 4 && len(x) >= 4 { // unrolled by four (see dotInOrder)
+	for len(d) >= 4 && len(x) >= 4 { // unrolled by four (see DotFrom)
 		a, b := (*[4]float64)(d), (*[4]float64)(x)
 		a[0], a[1], a[2], a[3] = b[0]-mean, b[1]-mean, b[2]-mean, b[3]-mean
 		d, x = d[4:], x[4:]
@@ -780,7 +780,7 @@ func Detrend(dst, y []float64, det Trend) []float64 {
 
 // sumInOrder returns Σ x_i summed in order from i = 0 into one
 // accumulator, as the plain loop does (the same sum bit for bit), with the
-// loop unrolled by four (see dotInOrder).
+// loop unrolled by four (see DotFrom).
 func sumInOrder(x []float64) float64 {
 	s := 0.0
 	for len(x) >= 4 {

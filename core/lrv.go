@@ -46,17 +46,18 @@ func Autocov(u []float64, j int) float64 {
 	if j >= n || n == 0 {
 		return 0
 	}
-	return dotInOrder(u[j:], u[:n-j]) / float64(n)
+	return DotFrom(0, u[j:], u[:n-j]) / float64(n)
 }
 
-// dotInOrder returns Σ x_i y_i (len(y) >= len(x)) summed in order from
-// i = 0 into one accumulator, as the plain loop does, so the sum is the
-// same bit for bit; the loop is unrolled by four. Under WebAssembly every
-// pass of a Go loop is a jump through the function's block dispatcher plus
-// a bounds check, which cost more than the product itself (the
-// long-run variances of KPSS and Phillips-Perron are such sums).
-func dotInOrder(x, y []float64) float64 {
-	s := 0.0
+// DotFrom returns s + Σ x_i y_i (len(y) >= len(x)) added to s in order
+// from i = 0, as the plain loop `for i { s += x[i]*y[i] }` does, so the
+// sum is the same bit for bit; the loop is unrolled by four. Under
+// WebAssembly every pass of a Go loop is a jump through the function's
+// block dispatcher plus a bounds check, which cost more than the product
+// itself (the long-run variances of KPSS, Phillips-Perron and Bai-Perron
+// and the break searches' long products are such sums). The tests hold
+// the plain loop as its twin.
+func DotFrom(s float64, x, y []float64) float64 {
 	y = y[:len(x)]
 	for len(x) >= 4 && len(y) >= 4 {
 		a, b := (*[4]float64)(x), (*[4]float64)(y) // no bounds checks below
