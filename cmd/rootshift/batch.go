@@ -8,6 +8,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"strings"
 	"time"
 
@@ -49,10 +50,44 @@ be written in full (the summary says how many records were), 4 when there was
 nothing to process (no series read), 130 after an interrupt (Ctrl-C, SIGINT),
 143 after SIGTERM (both: whole lines written, then the summary).`
 
+// Garbage collection of a batch run: its live heap is a few megabytes
+// (the series in flight and their records), so with Go's default the
+// collector runs every few series and took about 15% of the run's time
+// (10,000 series of length 300: 5.9-7.1 s against 7.2-8.5 s for 2,000
+// series with GOGC=400 against 100, peak memory 26 MB against 13 MB). A
+// batch run collects at batchGCPercent, with a soft limit of
+// batchMemoryLimit that brings the default back when a large input makes
+// the heap grow; the GOGC and GOMEMLIMIT environment variables, when set,
+// win.
+const (
+	batchGCPercent   = 400
+	batchMemoryLimit = 512 << 20
+)
+
+// batchGC applies the batch run's collection settings and returns the
+// function that restores the previous ones.
+func batchGC() func() {
+	restore := []func(){}
+	if os.Getenv("GOGC") == "" {
+		old := debug.SetGCPercent(batchGCPercent)
+		restore = append(restore, func() { debug.SetGCPercent(old) })
+	}
+	if os.Getenv("GOMEMLIMIT") == "" {
+		old := debug.SetMemoryLimit(batchMemoryLimit)
+		restore = append(restore, func() { debug.SetMemoryLimit(old) })
+	}
+	return func() {
+		for _, f := range restore {
+			f()
+		}
+	}
+}
+
 func (e *env) batch(args []string) int {
 	if len(args) > 0 && args[0] == "merge" {
 		return e.batchMerge(args[1:])
 	}
+	defer batchGC()()
 	var cfg batch.Config
 	var out, shard, order, cachePath, csvPath, verdictPath string
 	var long, jsonl, resume, startOver, quiet bool
