@@ -165,21 +165,17 @@ func (b *trendBreak) date(y []float64) int {
 	return best
 }
 
-// lagAt returns the lag order chosen by rule (core.SelectLags) for y
+// lagAtZ returns the lag order chosen by rule (core.SelectLags) for the series
 // detrended by least squares on a constant, a trend and the level and
 // slope break at tb (no break when tb <= 0), with Schwert's maximum or kmax
 // when smaller (kmax >= 0); 0 when it cannot be computed. The detrending
 // runs on the standardised series (the lag criteria do not depend on the
 // scale) from its cross-products with s = t/T (core.Normal); its twin, a
-// core.LS fit of y itself, is in the tests.
-func (b *trendBreak) lagAt(y []float64, tb int, rule core.LagRule, kmax int) int {
-	b.z, _, _ = core.Standardize(b.z, y)
-	return b.lagAtZ(tb, rule, kmax)
-}
-
-// lagAtZ is lagAt on the standardised series already in b.z (date leaves
-// it there). The cross-products of [1, s, DU, DT] and z are sums over the
-// whole sample and over the new regime, straight-line loops.
+// core.LS fit of the series itself, is in the tests.
+//
+// It reads the standardised series from b.z (date leaves it there). The
+// cross-products of [1, s, DU, DT] and z are sums over the whole sample and
+// over the new regime, in straight-line loops.
 func (b *trendBreak) lagAtZ(tb int, rule core.LagRule, kmax int) int {
 	z := b.z
 	T := len(z)

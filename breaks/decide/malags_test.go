@@ -270,3 +270,10 @@ func TestUnionRawNoAlloc(t *testing.T) {
 		}
 	}
 }
+
+// lagAt is lagAtZ on y: the standardisation date would leave in b.z, then
+// the order at tb (the entry of the tests, at any date).
+func (b *trendBreak) lagAt(y []float64, tb int, rule core.LagRule, kmax int) int {
+	b.z, _, _ = core.Standardize(b.z, y)
+	return b.lagAtZ(tb, rule, kmax)
+}
