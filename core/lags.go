@@ -229,6 +229,48 @@ func (w *DFWork) plainSample(y []float64, det Trend, kmax int) bool {
 	return tss > 0 && !math.IsInf(tss, 0) && !math.IsInf(lss, 0)
 }
 
+// lagColumnsLive reports whether the lagged-difference block of the
+// cross-products in xx (row stride stride, lags 1..k, over the sample
+// t = start..T) can be trusted. crossLagged forms it by adding and
+// removing end terms, the differences before the sample among them, so
+//   - a pre-sample difference much larger than the sample's (an outlier
+//     among the first observations) leaves its square's rounding in every
+//     entry: declined when its square exceeds preSampleShare of Σ Δz_t²;
+//   - a column of exact zeros (a run of equal values) comes out as rounding
+//     noise, which the Jacobi scaling of Normal would turn into a
+//     regressor: declined when a column's sum of squares is below
+//     deadColumn of Σ Δz_t².
+//
+// Such designs go to the QR fit, which sees the columns as they are.
+func (w *DFWork) lagColumnsLive(xx []float64, stride, k, start int, yy float64) bool {
+	for s := max(start-k, 2); s < start; s++ {
+		if d := w.dz[s-1]; !(d*d <= preSampleShare*yy) {
+			return false
+		}
+	}
+	for i := 1; i <= k; i++ {
+		if !(xx[i*stride+i] > deadColumn*yy) {
+			return false
+		}
+	}
+	return true
+}
+
+// preSampleShare bounds the square of a difference before the sample
+// relative to Σ Δz_t² over it (lagColumnsLive): the cross-products then
+// keep about ten digits (common practice, no source; found by
+// FuzzTStatFast, a spike 65,000 times the series' level before the sample).
+const preSampleShare = 1e6
+
+// deadColumn: a lagged-difference column whose sum of squares is below
+// this share of Σ Δz_t² comes from adding and removing terms up to that
+// much larger than itself (a burst just outside the column's window, or a
+// run of equal values), so it carries few correct digits; such a design
+// goes to the QR fit (common practice, no source; found by FuzzTStatFast).
+// Data reach it only with a burst a thousand times the other changes at
+// the sample's ends.
+const deadColumn = 1e-8
+
 // gather sets w.nm to the normal equations of the regressors idx (columns
 // of a design whose X'X lower triangle is xx, row stride stride, and X'y is
 // xy) in the order given, with y'y = yy over n observations, and returns
@@ -267,6 +309,9 @@ func (w *DFWork) selectNested(xx, xy []float64, yy float64, m, kmax, nd, n int, 
 // trend after the constant), of which this design's columns are a subset
 // (ADFPair).
 func (w *DFWork) selectNestedIn(xx, xy []float64, yy float64, stride, m, kmax, nd, n int, rule LagRule, logScale float64) (int, bool) {
+	if !w.lagColumnsLive(xx, stride, kmax, kmax+2, yy) {
+		return 0, false
+	}
 	if cap(w.idx) < m {
 		w.idx = make([]int, m)
 	}
@@ -309,8 +354,9 @@ func (w *DFWork) selectNestedIn(xx, xy []float64, yy float64, stride, m, kmax, n
 }
 
 // scaleInto puts src, scaled to unit root mean square (and centred when
-// the design has nd > 0 deterministic terms), into w.z and returns the
-// scale; ok is false when the scale is zero or not finite.
+// the design has nd > 0 deterministic terms), into w.z, its differences
+// into w.dz, and returns the scale; ok is false when the scale is zero or
+// not finite, or, with a constant, below collinearLevel of the mean.
 func (w *DFWork) scaleInto(src []float64, nd int) (scale float64, ok bool) {
 	T := len(src)
 	w.z = grow(w.z, T)
@@ -329,9 +375,23 @@ func (w *DFWork) scaleInto(src []float64, nd int) (scale float64, ok bool) {
 	if !(scale > 0) || math.IsInf(scale, 0) {
 		return 0, false
 	}
+	// A level that varies only in its last digits is, to the QR fit of the
+	// raw columns, the constant column again (ErrSingular); centring would
+	// hide that, so such a series is left to the QR fit.
+	if nd > 0 && !(scale > collinearLevel*math.Abs(mean)) {
+		return 0, false
+	}
 	inv := 1 / scale
 	for i, v := range src {
 		w.z[i] = (v - mean) * inv
+	}
+	// The differences from src itself: differencing z would lose the digits
+	// of a series far from its mean relative to its changes (a design
+	// without a constant is not centred), which the QR fit keeps.
+	w.dz = grow(w.dz, T)
+	w.dz[0] = 0
+	for i := 1; i < T; i++ {
+		w.dz[i] = (src[i] - src[i-1]) * inv
 	}
 	return scale, true
 }
@@ -342,6 +402,24 @@ func (w *DFWork) scaleInto(src []float64, nd int) (scale float64, ok bool) {
 // roundoff over the smallest pivot, so 1e-6 keeps it near 1e-10 (common
 // practice, no source: the usual loss of digits of the normal equations).
 const minPivot = 1e-6
+
+// collinearLevel: scaleInto declines a series whose standard deviation is
+// below this share of its mean. To the QR fit of the uncentred columns
+// such a level is nearly the constant column again: it loses about
+// log10(mean/sd) digits and, below 1e-10, judges the design singular.
+// Centring would hide that, so the cross-product paths leave such series
+// to the QR fit and both give the same answer (common practice, no
+// source; found by FuzzTStatFast).
+const collinearLevel = 1e-6
+
+// fastAccuracy bounds the product of the share of Δz'Δz left in the
+// residuals and the smallest pivot that TStatFast accepts (see tSolve): at
+// 1e-6 the t-ratio from the normal equations keeps about nine digits
+// (common practice, no source; FuzzTStatFast found a fit with t = -75,675
+// at a share of 3.5e-10 and one with t = -2,408 and a small pivot that
+// differed from QR in the sixth digit). Fits of data are far from it: a
+// t-ratio of -5 leaves most of Δz'Δz in the residuals.
+const fastAccuracy = 1e-6
 
 // TStatFast returns the Dickey-Fuller t-ratio of the regression with k
 // lags on its own sample t = k+2..T, as Regress(y, det, k, 0).TStat, from
@@ -408,15 +486,35 @@ func (w *DFWork) tSolve(stride, k, nd int, yy float64, n int) (t float64, ok boo
 		idx[nd+i-1] = i
 	}
 	idx[p-1] = 0
-	nm := w.gather(w.xx, w.xy, stride, idx, yy, n)
-	ssr, err := nm.Solve()
-	if err != nil || !(ssr > 1e-10*yy) {
+	if !w.lagColumnsLive(w.xx, stride, k, k+2, yy) {
 		return 0, false
 	}
+	nm := w.gather(w.xx, w.xy, stride, idx, yy, n)
+	ssr, err := nm.Solve()
+	if err != nil {
+		return 0, false
+	}
+	// The t-ratio's relative error is about the unit roundoff times
+	// YY/SSR (SSR = YY - z'z loses those digits to the subtraction) times
+	// the design's conditioning, 1/(smallest pivot), times the lag block's
+	// own loss (below): accept only while that product stays below
+	// 1/fastAccuracy, else only the QR fit is accurate enough (an almost
+	// exact fit, |t| in the thousands, nearly collinear columns, a burst
+	// at the sample's ends).
+	piv := math.Inf(1)
 	for j := 0; j < p; j++ {
-		if l := nm.l[j*p+j]; !(l*l >= minPivot) {
-			return 0, false
-		}
+		l := nm.l[j*p+j]
+		piv = min(piv, l*l)
+	}
+	// The lag block's entries carry rounding of about the unit roundoff
+	// times Σ Δz_t² (crossLagged's end-term updates): relative to the
+	// smallest lag column that is the share below.
+	share := 1.0
+	for i := 1; i <= k; i++ {
+		share = min(share, w.xx[i*stride+i]/yy)
+	}
+	if !(piv >= minPivot) || !(ssr*piv*share > fastAccuracy*yy) {
+		return 0, false
 	}
 	t = nm.z[p-1] / math.Sqrt(ssr/float64(n-p))
 	if math.IsNaN(t) || math.IsInf(t, 0) {
@@ -435,8 +533,9 @@ func (w *DFWork) tSolve(stride, k, nd int, yy float64, n int) (t float64, ok boo
 // O(n·kmax²)), and G(i,1) follows from the product at lag i-1 the same
 // way. The sums of the lagged differences telescope (Σ_t Δz_{t-i} =
 // z_{T-i} - z_{start-1-i}), so one pass per lag accumulates three products
-// over the differences, computed once. crossRowSweep, the row-by-row sweep,
-// is its brute-force twin in the tests.
+// over the differences, which it reads from w.dz (scaleInto computes them
+// from the series itself). crossRowSweep, the row-by-row sweep, is its
+// brute-force twin in the tests.
 func (w *DFWork) crossLagged(z []float64, T, kmax, nd, start int, tbar, tsd float64) float64 {
 	m := 1 + kmax + nd
 	xx, xy := w.xx[:m*m], w.xy[:m]
@@ -446,13 +545,9 @@ func (w *DFWork) crossLagged(z []float64, T, kmax, nd, start int, tbar, tsd floa
 	for i := range xy {
 		xy[i] = 0
 	}
-	// dz[j] = z[j] - z[j-1] (dz[0] unused): Δz at 1-based time s is dz[s-1].
-	w.dz = grow(w.dz, T)
+	// w.dz[j] = Δz at 0-based j (dz[0] unused), as scaleInto leaves it: Δz
+	// at 1-based time s is dz[s-1].
 	dz := w.dz[:T]
-	dz[0] = 0
-	for j := 1; j < T; j++ {
-		dz[j] = z[j] - z[j-1]
-	}
 	D := func(s int) float64 { return dz[s-1] }
 	c, tr := kmax+1, kmax+2
 	n := T - start + 1
@@ -595,6 +690,9 @@ func (w *DFWork) selectLagsFast(y []float64, det Trend, rule LagRule, kmax int) 
 	best, bestK := math.Inf(1), 0
 	if rule == LagAIC || rule == LagBIC {
 		return w.selectNested(xx, xy, yy, m, kmax, nd, n, rule, logScale)
+	}
+	if !w.lagColumnsLive(xx, m, kmax, start, yy) {
+		return 0, false
 	}
 	for kk := 0; kk <= kmax; kk++ {
 		p := 1 + kk + nd

@@ -26,6 +26,10 @@ func crossSetup(T, kmax, nd int, seed uint64) (*DFWork, []float64, int, float64,
 	w := &DFWork{}
 	w.xx = grow(w.xx, m*m)
 	w.xy = grow(w.xy, m)
+	w.dz = grow(w.dz, T) // the differences crossLagged reads (scaleInto's)
+	for i := 1; i < T; i++ {
+		w.dz[i] = z[i] - z[i-1]
+	}
 	return w, z, start, tbar, tsd
 }
 

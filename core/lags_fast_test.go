@@ -174,3 +174,48 @@ func BenchmarkTStatFast(b *testing.B) {
 		})
 	}
 }
+
+// FuzzTStatFast feeds series built from arbitrary bytes (random-walk-like
+// steps of a few units, around a level of 0, 1e3 or 1e6, and a burst of
+// steps up to 1,000 times larger) with any trend and order to the fast
+// t-ratio: whenever it answers, the QR fit must succeed and agree with it
+// (relative 1e-7: the acceptance rules keep about seven digits in the
+// worst designs they accept, a burst at the sample's end; statistics of
+// data are compared at far coarser scales). The decoded
+// series stay in the range of data (the raw-float inputs of FuzzADF and
+// FuzzADFPair reach the extremes: there the fast path must only agree
+// with the statistic functions and never panic).
+func FuzzTStatFast(f *testing.F) {
+	f.Add([]byte("the quick brown fox jumps over the lazy dog 0123456789"), uint8(0), uint8(2))
+	f.Add([]byte{0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 1, 0, 0, 0, 0}, uint8(1), uint8(3))
+	f.Add([]byte{200, 3, 250, 7, 100, 9, 1, 128, 255, 0, 77, 31, 64, 90, 12, 201, 33, 45, 19, 80, 150, 6, 99}, uint8(2), uint8(5))
+	f.Fuzz(func(t *testing.T, b []byte, trend, lags uint8) {
+		if len(b) < 2 {
+			return
+		}
+		level := []float64{0, 1e3, 1e6}[int(b[0])%3]
+		y := make([]float64, len(b)-1)
+		s := level
+		for i, v := range b[1:] {
+			step := float64(int(v)-128) / 32
+			if v >= 250 {
+				step *= 1000 // a burst
+			}
+			s += step
+			y[i] = s
+		}
+		det, k := Trend(trend%3), int(lags%6)
+		var w, q DFWork
+		got, ok := w.TStatFast(y, det, k)
+		if !ok {
+			return
+		}
+		fit, err := q.Regress(y, det, k, 0)
+		if err != nil {
+			t.Fatalf("fast path answered %v where the QR fit fails: %v", got, err)
+		}
+		if d := math.Abs(got - fit.TStat); d > 1e-7*(1+math.Abs(fit.TStat)) {
+			t.Fatalf("fast t %.15g, QR t %.15g", got, fit.TStat)
+		}
+	})
+}
